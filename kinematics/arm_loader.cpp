@@ -1,0 +1,245 @@
+#include "kinematics/arm_loader.hpp"
+
+#include <map>
+
+#include "kinematics/input_error.hpp"
+#include "kinematics/urdf_chain.hpp"
+#include "kinematics/xml_file.hpp"
+
+namespace tw::kinematics {
+namespace {
+
+constexpr double kPi = 3.14159265358979323846;
+constexpr double kMmToM = 0.001;
+constexpr double kDegToRad = kPi / 180.0;
+constexpr int kFormatVersion = 1;
+
+using Element = tinyxml2::XMLElement;
+
+/// Reads one description file; keeps the file open for located errors.
+class ArmFileReader {
+ public:
+  explicit ArmFileReader(const std::string& path) : file_(path) {}
+
+  ArmModel read() {
+    const Element& root = file_.root("arm-description");
+    file_.allowOnly(root, {"format-version", "name", "length-unit", "angle-unit"},
+                    {"ortho-parallel", "joints", "serial-chain", "urdf", "flange", "link-geometry"});
+    const double version = file_.number(root, "format-version");
+    if (version != kFormatVersion) {
+      file_.fail(root, "format-version " + file_.text(root, "format-version") +
+                           " is not supported; this build reads version 1");
+    }
+    if (file_.text(root, "length-unit") != "mm") file_.fail(root, "length-unit must be \"mm\"");
+    if (file_.text(root, "angle-unit") != "deg") file_.fail(root, "angle-unit must be \"deg\"");
+
+    ArmDescription arm;
+    arm.name = file_.text(root, "name");
+    arm.source = file_.path();
+
+    const Element* ortho = file_.optionalChild(root, "ortho-parallel");
+    const Element* chain = file_.optionalChild(root, "serial-chain");
+    const Element* urdf = file_.optionalChild(root, "urdf");
+    if ((ortho != nullptr) + (chain != nullptr) + (urdf != nullptr) != 1) {
+      file_.fail(root, "expected exactly one of <ortho-parallel>, <serial-chain> or <urdf>");
+    }
+    if (ortho != nullptr) readOrthoParallel(root, *ortho, arm);
+    if (chain != nullptr) readSerialChain(root, *chain, arm);
+    if (urdf != nullptr) readUrdf(root, *urdf, arm);
+
+    if (const Element* flange = file_.optionalChild(root, "flange")) {
+      file_.allowOnly(*flange, {"xyz", "rpy"});
+      arm.X_LF = arm.X_LF * pose(*flange);
+    }
+    if (const Element* geometry = file_.optionalChild(root, "link-geometry")) {
+      readLinkGeometry(*geometry, static_cast<int>(arm.joints.size()), arm);
+    }
+    return ArmModel(std::move(arm));
+  }
+
+ private:
+  Eigen::Isometry3d pose(const Element& element) const {
+    Eigen::Isometry3d X = Eigen::Isometry3d::Identity();
+    X.translation() = kMmToM * file_.optionalTriple(element, "xyz").value_or(Eigen::Vector3d::Zero());
+    X.linear() = rotationFromRollPitchYaw(
+        kDegToRad * file_.optionalTriple(element, "rpy").value_or(Eigen::Vector3d::Zero()));
+    return X;
+  }
+
+  double length(const Element& element, const char* attribute) const {
+    return kMmToM * file_.number(element, attribute);
+  }
+
+  double positiveLength(const Element& element, const char* attribute) const {
+    const double value = length(element, attribute);
+    if (value <= 0.0) file_.fail(element, std::string(attribute) + " must be greater than 0");
+    return value;
+  }
+
+  /// Reads limits, velocity and acceleration in file units into `joint`,
+  /// whose type must already be set, and checks them.
+  void readMotionLimits(const Element& element, JointSpec& joint, bool limits_in_file) const {
+    const bool revolute = joint.type == JointType::kRevolute;
+    const double position_scale = revolute ? kDegToRad : kMmToM;
+    if (limits_in_file) {
+      joint.lower = position_scale * file_.number(element, "min");
+      joint.upper = position_scale * file_.number(element, "max");
+      joint.max_velocity = position_scale * file_.number(element, "max-velocity");
+    }
+    joint.max_acceleration = position_scale * file_.number(element, "max-acceleration");
+    if (std::optional<std::string> problem = jointProblem(joint)) file_.fail(element, *problem);
+  }
+
+  /// The <joints> list: one entry per joint name, in order.
+  std::vector<const Element*> jointEntries(const Element& root, std::size_t expected) const {
+    const Element& list = file_.child(root, "joints");
+    file_.allowOnly(list, {}, {"joint"});
+    std::vector<const Element*> entries;
+    for (const Element* joint = list.FirstChildElement("joint"); joint != nullptr;
+         joint = joint->NextSiblingElement("joint")) {
+      entries.push_back(joint);
+    }
+    if (expected != 0 && entries.size() != expected) {
+      file_.fail(list, "expected " + std::to_string(expected) + " <joint> entries, found " +
+                           std::to_string(entries.size()));
+    }
+    return entries;
+  }
+
+  void readOrthoParallel(const Element& root, const Element& element, ArmDescription& arm) const {
+    file_.allowOnly(element, {"a1", "a2", "b", "c1", "c2", "c3", "c4"});
+    OrthoParallelGeometry geometry;
+    geometry.a1 = length(element, "a1");
+    geometry.a2 = length(element, "a2");
+    geometry.b = length(element, "b");
+    geometry.c1 = length(element, "c1");
+    geometry.c2 = length(element, "c2");
+    geometry.c3 = length(element, "c3");
+    geometry.c4 = length(element, "c4");
+
+    std::vector<JointSpec> limits(6);
+    const std::vector<const Element*> entries = jointEntries(root, 6);
+    for (int i = 0; i < 6; ++i) {
+      const Element& entry = *entries[i];
+      file_.allowOnly(entry, {"name", "min", "max", "max-velocity", "max-acceleration", "sign",
+                              "zero-offset"});
+      limits[i].name = file_.text(entry, "name");
+      readMotionLimits(entry, limits[i], true);
+      geometry.sign[i] = file_.optionalNumber(entry, "sign").value_or(1.0);
+      geometry.zero_offset[i] = kDegToRad * file_.optionalNumber(entry, "zero-offset").value_or(0.0);
+      if (geometry.sign[i] != 1.0 && geometry.sign[i] != -1.0) {
+        file_.fail(entry, "sign must be 1 or -1");
+      }
+    }
+    if (std::optional<std::string> problem = orthoParallelProblem(geometry)) {
+      file_.fail(element, *problem);
+    }
+    arm.joints = orthoParallelChain(geometry, limits);
+    arm.X_LF = orthoParallelFlange(geometry);
+    arm.ortho_parallel = geometry;
+  }
+
+  void readSerialChain(const Element& root, const Element& element, ArmDescription& arm) const {
+    file_.allowOnly(element, {}, {"joint"});
+    if (file_.optionalChild(root, "joints") != nullptr) {
+      file_.fail(root, "<joints> is not used with <serial-chain>; limits go on its <joint> entries");
+    }
+    for (const Element* entry = element.FirstChildElement("joint"); entry != nullptr;
+         entry = entry->NextSiblingElement("joint")) {
+      file_.allowOnly(*entry, {"name", "type", "xyz", "rpy", "axis", "min", "max", "max-velocity",
+                               "max-acceleration"});
+      JointSpec joint;
+      joint.name = file_.text(*entry, "name");
+      joint.type = file_.choice(*entry, "type", {"revolute", "prismatic"}) == 0
+                       ? JointType::kRevolute
+                       : JointType::kPrismatic;
+      joint.X_PJ = pose(*entry);
+      joint.axis = file_.triple(*entry, "axis");
+      if (joint.axis.norm() < 1e-9) file_.fail(*entry, "axis must not be zero");
+      readMotionLimits(*entry, joint, true);
+      arm.joints.push_back(joint);
+    }
+    if (arm.joints.empty()) file_.fail(element, "expected at least one <joint>");
+  }
+
+  void readUrdf(const Element& root, const Element& element, ArmDescription& arm) const {
+    file_.allowOnly(element, {"file", "base-link", "tip-link"});
+    const std::string path = resolve(file_.text(element, "file"));
+    UrdfChain chain =
+        loadUrdfChain(path, file_.text(element, "base-link"), file_.text(element, "tip-link"));
+    const std::vector<const Element*> entries = jointEntries(root, chain.joints.size());
+    for (std::size_t i = 0; i < entries.size(); ++i) {
+      file_.allowOnly(*entries[i], {"name", "max-acceleration"});
+      const std::string name = file_.text(*entries[i], "name");
+      if (name != chain.joints[i].name) {
+        file_.fail(*entries[i], "expected joint '" + chain.joints[i].name +
+                                    "' here (the URDF chain's order), found '" + name + "'");
+      }
+      readMotionLimits(*entries[i], chain.joints[i], false);
+    }
+    arm.joints = std::move(chain.joints);
+    arm.X_LF = chain.X_LF;
+  }
+
+  void readLinkGeometry(const Element& element, int joint_count, ArmDescription& arm) const {
+    file_.allowOnly(element, {}, {"link"});
+    arm.links.assign(joint_count + 1, LinkGeometry{});
+    arm.links[0].name = "base";
+    for (int i = 1; i <= joint_count; ++i) arm.links[i].name = arm.joints[i - 1].name;
+    std::vector<bool> seen(joint_count + 1, false);
+    for (const Element* link = element.FirstChildElement("link"); link != nullptr;
+         link = link->NextSiblingElement("link")) {
+      file_.allowOnly(*link, {"index"}, {"mesh", "box", "cylinder", "sphere", "capsule"});
+      const double index = file_.number(*link, "index");
+      if (index != static_cast<int>(index) || index < 0 || index > joint_count) {
+        file_.fail(*link, "index must be an integer from 0 (base) to " + std::to_string(joint_count));
+      }
+      if (seen[static_cast<int>(index)]) file_.fail(*link, "link index repeated");
+      seen[static_cast<int>(index)] = true;
+      for (const Element* shape = link->FirstChildElement(); shape != nullptr;
+           shape = shape->NextSiblingElement()) {
+        arm.links[static_cast<int>(index)].shapes.push_back(readShape(*shape));
+      }
+    }
+  }
+
+  LinkShape readShape(const Element& element) const {
+    LinkShape shape;
+    const std::string kind = element.Name();
+    if (kind == "mesh") {
+      file_.allowOnly(element, {"file", "unit", "xyz", "rpy"});
+      shape.kind = LinkShape::Kind::kMesh;
+      shape.mesh_path = resolve(file_.text(element, "file"));
+      shape.mesh_scale = file_.choice(element, "unit", {"mm", "m"}) == 0 ? kMmToM : 1.0;
+    } else if (kind == "box") {
+      file_.allowOnly(element, {"size", "xyz", "rpy"});
+      shape.kind = LinkShape::Kind::kBox;
+      shape.box_size = kMmToM * file_.triple(element, "size");
+      if ((shape.box_size.array() <= 0.0).any()) file_.fail(element, "every size must be > 0");
+    } else if (kind == "sphere") {
+      file_.allowOnly(element, {"radius", "xyz", "rpy"});
+      shape.kind = LinkShape::Kind::kSphere;
+      shape.radius = positiveLength(element, "radius");
+    } else {
+      file_.allowOnly(element, {"radius", "length", "xyz", "rpy"});
+      shape.kind = kind == "cylinder" ? LinkShape::Kind::kCylinder : LinkShape::Kind::kCapsule;
+      shape.radius = positiveLength(element, "radius");
+      shape.length = positiveLength(element, "length");
+    }
+    shape.X_LS = pose(element);
+    return shape;
+  }
+
+  std::string resolve(const std::string& reference) const {
+    return !reference.empty() && reference.front() == '/' ? reference
+                                                          : file_.directory() + "/" + reference;
+  }
+
+  XmlFile file_;
+};
+
+}  // namespace
+
+ArmModel loadArmDescription(const std::string& path) { return ArmFileReader(path).read(); }
+
+}  // namespace tw::kinematics
