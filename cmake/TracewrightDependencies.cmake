@@ -21,3 +21,9 @@ endif()
 if(TW_BUILD_BENCHMARKS)
   find_package(benchmark REQUIRED)
 endif()
+
+# Used by the collision, planner and postproc modules.
+find_package(fcl REQUIRED)
+find_package(assimp REQUIRED)
+find_package(ompl REQUIRED)
+find_package(nlohmann_json 3 REQUIRED)
