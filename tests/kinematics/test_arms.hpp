@@ -1,0 +1,26 @@
+#pragma once
+
+#include <string>
+
+#include "kinematics/arm_model.hpp"
+
+namespace tw::kinematics::test {
+
+/// The synthetic ortho-parallel arm of the worked check vector in the team's
+/// domain-facts reference (§4): (a1, a2, b, c1, c2, c3, c4) =
+/// (0.20, 0.10, 0.05, 0.50, 0.70, 0.80, 0.15) m, with the given limits on
+/// every joint [rad] and generous rates.
+ArmModel referenceOrthoArm(double lower = -3.14159265358979323846,
+                           double upper = 3.14159265358979323846);
+
+/// Same geometry, with axes 4 and 6 allowed ±350° (multi-turn) and 1–3, 5
+/// limited as on an ordinary arm.
+ArmModel referenceOrthoArmMultiTurn();
+
+/// The invented sample arm shipped in samples/arms/.
+ArmModel sampleArm();
+
+/// Path of a file in the source tree.
+std::string sourcePath(const std::string& relative);
+
+}  // namespace tw::kinematics::test
