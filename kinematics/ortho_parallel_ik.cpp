@@ -105,13 +105,12 @@ void OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF, const IkOptions& 
     const double s1 = std::sin(theta1);
     const double c1 = std::cos(theta1);
 
-    for (int bend = 0; bend < 2; ++bend) {
+    for (const bool elbow_up : {true, false}) {
       // A positive bend puts the elbow above the shoulder–wrist line when the
       // arm is in front, below it when the arm reaches back.
-      const double sign = bend == 0 ? 1.0 : -1.0;
+      const double sign = elbow_up == front ? 1.0 : -1.0;
       const double theta2 = direction - sign * shoulder_lag;
       const double theta3 = sign * elbow_bend - forearm_angle_;
-      const bool elbow_up = (bend == 0) == front;
 
       // Wrist rotation W = R_03ᵀ R_B6 with R_03 = Rz(θ1) Ry(θ2 + θ3).
       const double s23 = std::sin(theta2 + theta3);

@@ -51,3 +51,23 @@ std::string sourcePath(const std::string& relative) {
 }
 
 }  // namespace tw::kinematics::test
+
+namespace tw::kinematics::test {
+
+double unitDraw(std::mt19937_64& generator) {
+  return static_cast<double>(generator() >> 11) * 0x1.0p-53;
+}
+
+JointVector randomJoints(const ArmModel& arm, std::mt19937_64& generator) {
+  JointVector q(arm.jointCount());
+  for (int j = 0; j < arm.jointCount(); ++j) {
+    q[j] = arm.lowerLimits()[j] + unitDraw(generator) * (arm.upperLimits()[j] - arm.lowerLimits()[j]);
+  }
+  return q;
+}
+
+double rotationAngleBetween(const Eigen::Matrix3d& R_a, const Eigen::Matrix3d& R_b) {
+  return Eigen::AngleAxisd(R_a.transpose() * R_b).angle();
+}
+
+}  // namespace tw::kinematics::test

@@ -24,3 +24,19 @@ ArmModel sampleArm();
 std::string sourcePath(const std::string& relative);
 
 }  // namespace tw::kinematics::test
+
+#include <random>
+
+namespace tw::kinematics::test {
+
+/// Joint values drawn uniformly within the arm's limits, from the raw bits of
+/// the generator so the sequence is the same on every standard library.
+JointVector randomJoints(const ArmModel& arm, std::mt19937_64& generator);
+
+/// A uniform draw in [0, 1).
+double unitDraw(std::mt19937_64& generator);
+
+/// The angle [rad] of R_aᵀ R_b.
+double rotationAngleBetween(const Eigen::Matrix3d& R_a, const Eigen::Matrix3d& R_b);
+
+}  // namespace tw::kinematics::test
