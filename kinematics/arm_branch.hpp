@@ -25,8 +25,17 @@ struct ArmBranch {
 
   /// Stable index 0–7: shoulder, then elbow, then wrist, front/up/not
   /// flipped first.
-  int index() const;
-  static ArmBranch fromIndex(int index);
+  int index() const {
+    return (shoulder == ShoulderSide::kBack ? 4 : 0) + (elbow == ElbowSide::kDown ? 2 : 0) +
+           (wrist == WristSide::kFlipped ? 1 : 0);
+  }
+  static ArmBranch fromIndex(int index) {
+    ArmBranch branch;
+    branch.shoulder = (index & 4) != 0 ? ShoulderSide::kBack : ShoulderSide::kFront;
+    branch.elbow = (index & 2) != 0 ? ElbowSide::kDown : ElbowSide::kUp;
+    branch.wrist = (index & 1) != 0 ? WristSide::kFlipped : WristSide::kNotFlipped;
+    return branch;
+  }
   /// E.g. "shoulder front, elbow up, wrist not flipped".
   std::string toString() const;
 

@@ -17,9 +17,12 @@ constexpr double kCosineRounding = 1e-12;
 // onto it): far below any drive's resolution, above rounding of the formulas.
 constexpr double kLimitTolerance = 1e-9;
 
+/// Wraps to (−π, π]. The formulas give angles within a few turns, so
+/// stepping is cheaper than std::remainder here.
 double wrapToPi(double angle) {
-  angle = std::remainder(angle, kTwoPi);
-  return angle <= -kPi ? angle + kTwoPi : angle;
+  while (angle > kPi) angle -= kTwoPi;
+  while (angle <= -kPi) angle += kTwoPi;
+  return angle;
 }
 
 /// acos that reports out-of-range arguments instead of returning NaN.
@@ -52,8 +55,17 @@ OrthoParallelSolver::OrthoParallelSolver(const ArmModel& arm) : arm_(arm) {
   }
   g_ = *arm.orthoParallel();
   X_FL_ = arm.flangeInLastLink().inverse();
-  forearm_length_ = std::hypot(g_.a2, g_.c3);
+  forearm_length_ = std::sqrt(g_.a2 * g_.a2 + g_.c3 * g_.c3);
   forearm_angle_ = std::atan2(g_.a2, g_.c3);
+  sin_forearm_ = g_.a2 / forearm_length_;
+  for (int j = 0; j < 6; ++j) {
+    lower_[j] = arm.joint(j).lower;
+    upper_[j] = arm.joint(j).upper;
+    // Wrapped values lie in (−π, π]; these turns can bring one into range.
+    first_turn_[j] = static_cast<int>(std::ceil((arm.joint(j).lower - kLimitTolerance - kPi) / kTwoPi));
+    last_turn_[j] = static_cast<int>(std::floor((arm.joint(j).upper + kLimitTolerance + kPi) / kTwoPi));
+  }
+  cos_forearm_ = g_.c3 / forearm_length_;
 }
 
 IkSolutions OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF,
@@ -80,30 +92,52 @@ void OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF, const IkOptions& 
   const double radial_squared = p_BC.x() * p_BC.x() + p_BC.y() * p_BC.y() - g_.b * g_.b;
   if (radial_squared < 0.0) return;  // inside the cylinder of the lateral offset b
   const double radial = std::sqrt(radial_squared);
-  const double azimuth = std::atan2(p_BC.y(), p_BC.x());
-  const double offset_angle = std::atan2(g_.b, radial);
+  const double planar_squared = p_BC.x() * p_BC.x() + p_BC.y() * p_BC.y();
   const double height = p_BC.z() - g_.c1;
   const double k = forearm_length_;
   const double theta4_reference = g_.sign[3] * options.axis4_reference + g_.zero_offset[3];
+  const double sin_theta4_reference = std::sin(theta4_reference);
+  const double cos_theta4_reference = std::cos(theta4_reference);
 
   for (int shoulder = 0; shoulder < 2; ++shoulder) {
     const bool front = shoulder == 0;
-    const double theta1 = front ? azimuth - offset_angle : azimuth + offset_angle - kPi;
+    // θ1 = atan2(y, x) ∓ atan2(b, r) (− π behind): its sine and cosine follow
+    // from the wrist centre by the angle-sum formulas, with no trig calls.
+    // On axis 1 (x = y = 0, b = 0) any θ1 serves; take 0 in front, π behind.
+    double c1 = front ? 1.0 : -1.0;
+    double s1 = 0.0;
+    if (planar_squared > 0.0) {
+      const double x = p_BC.x();
+      const double y = p_BC.y();
+      c1 = front ? (x * radial + y * g_.b) / planar_squared : -(x * radial - y * g_.b) / planar_squared;
+      s1 = front ? (y * radial - x * g_.b) / planar_squared : -(y * radial + x * g_.b) / planar_squared;
+    }
+    const double theta1 = std::atan2(s1, c1);
     // Wrist centre in the arm plane, from axis 2: forward distance and height.
     const double forward = front ? radial - g_.a1 : -(radial + g_.a1);
     const double distance_squared = forward * forward + height * height;
     const double distance = std::sqrt(distance_squared);
-    double elbow_bend = 0.0;  // θ3 + forearm angle, magnitude
+    const double cos_bend = (distance_squared - g_.c2 * g_.c2 - k * k) / (2.0 * g_.c2 * k);
+    const double cos_lag = (distance_squared + g_.c2 * g_.c2 - k * k) / (2.0 * distance * g_.c2);
+    double elbow_bend = 0.0;  // |θ3 + forearm angle|
     double shoulder_lag = 0.0;
-    if (distance < kLimitTolerance ||
-        !safeAcos((distance_squared - g_.c2 * g_.c2 - k * k) / (2.0 * g_.c2 * k), elbow_bend) ||
-        !safeAcos((distance_squared + g_.c2 * g_.c2 - k * k) / (2.0 * distance * g_.c2),
-                  shoulder_lag)) {
+    if (distance < kLimitTolerance || !safeAcos(cos_bend, elbow_bend) ||
+        !safeAcos(cos_lag, shoulder_lag)) {
       continue;
     }
     const double direction = std::atan2(forward, height);
-    const double s1 = std::sin(theta1);
-    const double c1 = std::cos(theta1);
+    // θ2 + θ3 = (direction − forearm angle) ± (bend − lag): sines and cosines
+    // of both parts from the triangle's sides.
+    const double sin_direction = forward / distance;
+    const double cos_direction = height / distance;
+    const double sin_d = sin_direction * cos_forearm_ - cos_direction * sin_forearm_;
+    const double cos_d = cos_direction * cos_forearm_ + sin_direction * sin_forearm_;
+    const double sin_bend = std::sin(elbow_bend);
+    const double sin_lag = std::sin(shoulder_lag);
+    const double cb = std::cos(elbow_bend);
+    const double cl = std::cos(shoulder_lag);
+    const double sin_e = sin_bend * cl - cb * sin_lag;
+    const double cos_e = cb * cl + sin_bend * sin_lag;
 
     for (const bool elbow_up : {true, false}) {
       // A positive bend puts the elbow above the shoulder–wrist line when the
@@ -111,10 +145,10 @@ void OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF, const IkOptions& 
       const double sign = elbow_up == front ? 1.0 : -1.0;
       const double theta2 = direction - sign * shoulder_lag;
       const double theta3 = sign * elbow_bend - forearm_angle_;
+      const double s23 = sin_d * cos_e + sign * cos_d * sin_e;
+      const double c23 = cos_d * cos_e - sign * sin_d * sin_e;
 
       // Wrist rotation W = R_03ᵀ R_B6 with R_03 = Rz(θ1) Ry(θ2 + θ3).
-      const double s23 = std::sin(theta2 + theta3);
-      const double c23 = std::cos(theta2 + theta3);
       Eigen::Matrix3d R_03;
       R_03 << c1 * c23, -s1, c1 * s23,  //
           s1 * c23, c1, s1 * s23,       //
@@ -122,16 +156,17 @@ void OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF, const IkOptions& 
       const Eigen::Matrix3d W = R_03.transpose() * R_B6;
 
       // W = Rz(θ4) Ry(θ5) Rz(θ6): the third column is (c4 s5, s4 s5, c5).
-      const double sin5 = std::hypot(W(0, 2), W(1, 2));
-      const double theta5 = std::atan2(sin5, W(2, 2));
-      const bool singular = sin5 < options.wrist_singular_sine;
+      // Its entries give the sines and cosines directly (W is orthonormal to
+      // rounding), which saves four sincos calls per arm branch.
+      const double s5 = std::sqrt(W(0, 2) * W(0, 2) + W(1, 2) * W(1, 2));
+      const double c5 = W(2, 2);
+      const double theta5 = std::atan2(s5, c5);
+      const bool singular = s5 < options.wrist_singular_sine;
       const double theta4 = singular ? theta4_reference : std::atan2(W(1, 2), W(0, 2));
+      const double s4 = singular ? sin_theta4_reference : W(1, 2) / s5;
+      const double c4 = singular ? cos_theta4_reference : W(0, 2) / s5;
       // Axis 6 given axes 4 and 5, so that the pose is exact whatever the
       // accuracy of axis 4 near the singularity: Rz(θ6) = Ry(θ5)ᵀ Rz(θ4)ᵀ W.
-      const double s4 = std::sin(theta4);
-      const double c4 = std::cos(theta4);
-      const double s5 = std::sin(theta5);
-      const double c5 = std::cos(theta5);
       const double m00 = c5 * (c4 * W(0, 0) + s4 * W(1, 0)) - s5 * W(2, 0);
       const double m10 = -s4 * W(0, 0) + c4 * W(1, 0);
       const double theta6 = std::atan2(m10, m00);
@@ -161,24 +196,24 @@ void OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF, const IkOptions& 
 
 void OrthoParallelSolver::expandTurns(BranchOutcome& outcome, IkSolutions& out) const {
   // Per joint, the equivalent values q + 2πk inside the limits (at most 3,
-  // since ranges are at most 720°).
+  // since ranges are at most 720°); the candidate turns k are precomputed.
   std::array<std::array<double, 3>, 6> values;
   std::array<int, 6> counts{};
   for (int j = 0; j < 6; ++j) {
-    const double lower = arm_.joint(j).lower;
-    const double upper = arm_.joint(j).upper;
     const double q = outcome.q[j];
-    for (double turn = std::ceil((lower - kLimitTolerance - q) / kTwoPi);
-         q + turn * kTwoPi <= upper + kLimitTolerance; turn += 1.0) {
-      if (counts[j] < 3) values[j][counts[j]++] = std::clamp(q + turn * kTwoPi, lower, upper);
+    double value = q + first_turn_[j] * kTwoPi;
+    for (int turn = first_turn_[j]; turn <= last_turn_[j]; ++turn, value += kTwoPi) {
+      if (value < lower_[j] - kLimitTolerance) continue;
+      if (value > upper_[j] + kLimitTolerance) break;
+      values[j][counts[j]++] = std::clamp(value, lower_[j], upper_[j]);
     }
     if (counts[j] == 0) {
       // Report the equivalent value closest to the range.
-      const double below = q + std::floor((lower - q) / kTwoPi) * kTwoPi;
+      const double below = q + std::floor((lower_[j] - q) / kTwoPi) * kTwoPi;
       const double above = below + kTwoPi;
       outcome.status = BranchStatus::kJointLimit;
       outcome.limit_joint = j;
-      outcome.limit_value = (lower - below) < (above - upper) ? below : above;
+      outcome.limit_value = (lower_[j] - below) < (above - upper_[j]) ? below : above;
       return;
     }
   }

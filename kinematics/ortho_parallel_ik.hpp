@@ -93,6 +93,13 @@ class OrthoParallelSolver {
   Eigen::Isometry3d X_FL_;  ///< last link in the flange frame
   double forearm_length_;   ///< √(a2² + c3²)
   double forearm_angle_;    ///< atan2(a2, c3)
+  double sin_forearm_;
+  double cos_forearm_;
+  std::array<double, 6> lower_;  ///< joint limits, copied for locality
+  std::array<double, 6> upper_;
+  /// Per joint, the turns k for which q + 2πk, q in (−π, π], may be in range.
+  std::array<int, 6> first_turn_;
+  std::array<int, 6> last_turn_;
 };
 
 }  // namespace tw::kinematics
