@@ -1,12 +1,16 @@
 #include <memory>
 
+#include "postproc/joint_table_post_processor.hpp"
 #include "postproc/motion_text_post_processor.hpp"
 #include "postproc/post_processor_registry.hpp"
+#include "postproc/summary_post_processor.hpp"
 
 namespace tw::postproc {
 
 void registerBuiltInPostProcessors(PostProcessorRegistry& registry) {
   registry.add(std::make_unique<MotionTextPostProcessor>());
+  registry.add(std::make_unique<JointTablePostProcessor>());
+  registry.add(std::make_unique<SummaryPostProcessor>());
 }
 
 }  // namespace tw::postproc

@@ -10,6 +10,8 @@ namespace tw::postproc {
 /// Choices a caller may make when writing; every field has a default that
 /// suits a first review. Set fields by name.
 struct WriteOptions {
+  static constexpr double kDegree = 3.14159265358979323846 / 180.0;  ///< [rad]
+
   /// Name of the output for error messages ("" when writing to a stream).
   std::string output_name;
   /// Joint table: also write one interpolated row every `sample_period` [s];
@@ -17,11 +19,12 @@ struct WriteOptions {
   double sample_period = 0.0;
   /// Template post-processor: the template file to render.
   std::string template_file;
-  /// Summary warnings below these margins (common practice, no source;
-  /// the |axis 5| value of 10° follows the usual wrist-singularity advice).
-  double clearance_warning = 0.005;                     ///< [m]
-  double singularity_warning = 10.0 * 3.14159265358979323846 / 180.0;  ///< [rad]
-  double joint_limit_warning = 5.0 * 3.14159265358979323846 / 180.0;   ///< [rad]; [m]·1 for prismatic
+  /// Summary warnings below these margins (common practice, no source; the
+  /// 10° singularity margin follows the usual advice for |axis 5|).
+  double clearance_warning = 0.005;                    ///< [m]
+  double singularity_warning = 10.0 * kDegree;         ///< [rad]
+  double revolute_limit_warning = 5.0 * kDegree;       ///< [rad]
+  double prismatic_limit_warning = 0.010;              ///< [m]
 };
 
 /// A writer that turns a program into one file. Implementations are
