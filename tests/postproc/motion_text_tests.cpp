@@ -183,3 +183,15 @@ TEST_CASE("The motion text reader rejects damaged files with file:line errors",
     CHECK(error.line() == 1 + std::count(edited.begin(), edited.begin() + static_cast<long>(at), '\n'));
   }
 }
+
+TEST_CASE("The example in FORMAT.md is a valid motion text file", "[motion-text]") {
+  const std::string format = test::readWholeFile(std::string(TW_SOURCE_DIR) + "/postproc/FORMAT.md");
+  const std::size_t begin = format.find("<!-- example-begin -->\n```\n");
+  const std::size_t end = format.find("```\n<!-- example-end -->");
+  REQUIRE(begin != std::string::npos);
+  REQUIRE(end != std::string::npos);
+  const std::size_t start = begin + std::string("<!-- example-begin -->\n```\n").size();
+  const Program example = readMotionText(format.substr(start, end - start), "FORMAT.md");
+  REQUIRE(example.records.size() == 4);
+  CHECK(std::get<ProcessEvent>(example.records[1]).parameter_set == "steel_2mm");
+}
