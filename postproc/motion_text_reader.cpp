@@ -73,6 +73,18 @@ class FieldReader {
     return field.value;
   }
 
+  /// Index of the bare value among `words`; anything else is an error
+  /// listing them.
+  std::size_t choice(const std::string& key, const std::vector<std::string>& words) {
+    const std::string value = bare(key);
+    for (std::size_t i = 0; i < words.size(); ++i) {
+      if (value == words[i]) return i;
+    }
+    std::string list;
+    for (const std::string& word : words) list += (list.empty() ? "" : " or ") + word;
+    fail("field '" + key + "' is '" + value + "'; expected " + list);
+  }
+
   /// A number in the file's unit, converted to SI by dividing by the scale.
   double number(const std::string& key, const QuantityFormat& format) {
     return numbers(key, 1, format).front();
@@ -274,23 +286,11 @@ class MotionTextParser {
 
   void readUnits(FieldReader& fields) {
     planner::FileUnits units;
-    const std::string length = fields.bare("length");
-    const std::string angle = fields.bare("angle");
-    if (length == "mm") {
-      units.length = planner::LengthUnit::kMillimetre;
-    } else if (length == "m") {
-      units.length = planner::LengthUnit::kMetre;
-    } else {
-      fields.fail("length unit '" + length + "' is not supported; expected mm or m");
-    }
-    if (angle == "deg") {
-      units.angle = planner::AngleUnit::kDegree;
-    } else if (angle == "rad") {
-      units.angle = planner::AngleUnit::kRadian;
-    } else {
-      fields.fail("angle unit '" + angle + "' is not supported; expected deg or rad");
-    }
-    if (fields.bare("time") != "s") fields.fail("time unit must be s");
+    units.length = fields.choice("length", {"mm", "m"}) == 0 ? planner::LengthUnit::kMillimetre
+                                                             : planner::LengthUnit::kMetre;
+    units.angle = fields.choice("angle", {"deg", "rad"}) == 0 ? planner::AngleUnit::kDegree
+                                                              : planner::AngleUnit::kRadian;
+    fields.choice("time", {"s"});
     program_.metadata.units = units;
     quantities_ = fileQuantities(units);
     seen_units_ = true;
@@ -319,14 +319,9 @@ class MotionTextParser {
   void readJoint(FieldReader& fields) {
     planner::ProgramJoint joint;
     joint.name = fields.text("name");
-    const std::string type = fields.bare("type");
-    if (type == "revolute") {
-      joint.type = kinematics::JointType::kRevolute;
-    } else if (type == "prismatic") {
-      joint.type = kinematics::JointType::kPrismatic;
-    } else {
-      fields.fail("joint type '" + type + "' is not known; expected revolute or prismatic");
-    }
+    joint.type = fields.choice("type", {"revolute", "prismatic"}) == 0
+                     ? kinematics::JointType::kRevolute
+                     : kinematics::JointType::kPrismatic;
     if (static_cast<int>(program_.metadata.joints.size()) == kinematics::kMaxJoints) {
       fields.fail("too many joints; at most " + std::to_string(kinematics::kMaxJoints));
     }

@@ -34,6 +34,13 @@ std::string replaced(std::string text, const std::string& from, const std::strin
   return text.replace(at, from.size(), to);
 }
 
+/// The 1-based line of `text` on which `needle` starts.
+long lineOf(const std::string& text, const std::string& needle) {
+  const std::size_t at = text.find(needle);
+  REQUIRE(at != std::string::npos);
+  return 1 + std::count(text.begin(), text.begin() + static_cast<long>(at), '\n');
+}
+
 tw::InputError readError(const std::string& text) {
   try {
     readMotionText(text, "cell_a.twm");
@@ -145,15 +152,13 @@ TEST_CASE("The motion text reader rejects damaged files with file:line errors",
   SECTION("one changed digit") {
     const tw::InputError error = readError(replaced(good, "joints=10.0000", "joints=10.0001"));
     CHECK_THAT(error.message(), Catch::Contains("integrity check failed"));
-    const int last_line = static_cast<int>(std::count(good.begin(), good.end(), '\n'));
-    CHECK(error.line() == last_line);
+    CHECK(error.line() == lineOf(good, "integrity sha256="));
   }
   SECTION("a missing field, even with a correct integrity line") {
     const std::string edited = resealed(replaced(good, " blend=10.000", ""));
     const tw::InputError error = readError(edited);
     CHECK_THAT(error.message(), Catch::Contains("needs the field 'blend'"));
-    const std::size_t at = edited.find("joint-move n=1 ");
-    CHECK(error.line() == 1 + std::count(edited.begin(), edited.begin() + static_cast<long>(at), '\n'));
+    CHECK(error.line() == lineOf(edited, "joint-move n=1 "));
   }
   SECTION("an unknown version") {
     const tw::InputError error = readError(
@@ -179,8 +184,7 @@ TEST_CASE("The motion text reader rejects damaged files with file:line errors",
     const std::string edited = resealed(replaced(good, "process-off n=6", "process-on n=6"));
     const tw::InputError error = readError(edited);
     CHECK_THAT(error.message(), Catch::Contains("on while 'steel_3mm_fillet' is still on"));
-    const std::size_t at = edited.find("process-on n=6");
-    CHECK(error.line() == 1 + std::count(edited.begin(), edited.begin() + static_cast<long>(at), '\n'));
+    CHECK(error.line() == lineOf(edited, "process-on n=6"));
   }
 }
 

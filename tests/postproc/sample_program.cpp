@@ -2,6 +2,7 @@
 
 #include <cmath>
 #include <fstream>
+#include <optional>
 #include <sstream>
 #include <stdexcept>
 
@@ -37,10 +38,13 @@ MotionRecord motion(MotionKind kind, std::initializer_list<double> q_deg,
 }
 
 MotionRecord linear(std::initializer_list<double> q_deg, const Eigen::Vector3d& p_RT_mm,
-                    double start, double duration, double speed_mm_s) {
+                    double start, double duration, double speed_mm_s, double clearance_mm,
+                    std::optional<double> singularity_margin_deg) {
   MotionRecord record = motion(MotionKind::kLinearMove, q_deg, p_RT_mm, start, duration);
   record.speed = {SpeedKind::kTcpSpeed, speed_mm_s / 1000.0};
   record.seam = "seam_1";
+  record.clearance = clearance_mm / 1000.0;
+  if (singularity_margin_deg) record.singularity_margin = deg(*singularity_margin_deg);
   return record;
 }
 
@@ -69,33 +73,21 @@ planner::Program sampleProgram() {
   start.clearance = 0.120;
   program.records.emplace_back(start);
 
-  MotionRecord approach = linear({10.5, -18.0, 31.0, 0.0, 44.0, -15.5}, {800.0, 100.0, 420.0},
-                                 1.5, 0.6, 50.0);
-  approach.clearance = 0.030;
-  approach.singularity_margin = deg(44.0);
-  program.records.emplace_back(approach);
-
-  program.records.emplace_back(ProcessEvent{ProcessEventKind::kStart, "steel_3mm_fillet", "seam_1", 2.1});
-
+  program.records.emplace_back(linear({10.5, -18.0, 31.0, 0.0, 44.0, -15.5},
+                                      {800.0, 100.0, 420.0}, 1.5, 0.6, 50.0, 30.0, 44.0));
+  program.records.emplace_back(
+      ProcessEvent{ProcessEventKind::kStart, "steel_3mm_fillet", "seam_1", 2.1});
   MotionRecord weld_1 = linear({14.0, -17.5, 30.5, 1.0, 43.5, -19.0}, {800.0, 150.0, 420.0},
-                               2.1, 5.0, 10.0);
+                               2.1, 5.0, 10.0, 8.0, 43.5);
   weld_1.blend_radius = 0.002;
-  weld_1.clearance = 0.008;
-  weld_1.singularity_margin = deg(43.5);
   program.records.emplace_back(weld_1);
-
-  MotionRecord weld_2 = linear({17.25, -16.75, 29.75, 2.0, 42.75, -22.5},
-                               {810.5, 200.25, 420.0}, 7.1, 5.1, 10.0);
-  weld_2.clearance = 0.0095;
-  weld_2.singularity_margin = deg(42.75);
-  program.records.emplace_back(weld_2);
-
-  program.records.emplace_back(ProcessEvent{ProcessEventKind::kStop, "steel_3mm_fillet", "seam_1", 12.2});
-
-  MotionRecord retract = linear({17.0, -18.5, 29.0, 2.0, 44.0, -22.0}, {810.5, 200.25, 470.0},
-                                12.2, 0.5, 100.0);
-  retract.clearance = 0.025;
-  program.records.emplace_back(retract);
+  program.records.emplace_back(linear({17.25, -16.75, 29.75, 2.0, 42.75, -22.5},
+                                      {810.5, 200.25, 420.0}, 7.1, 5.1, 10.0, 9.5, 42.75));
+  program.records.emplace_back(
+      ProcessEvent{ProcessEventKind::kStop, "steel_3mm_fillet", "seam_1", 12.2});
+  program.records.emplace_back(linear({17.0, -18.5, 29.0, 2.0, 44.0, -22.0},
+                                      {810.5, 200.25, 470.0}, 12.2, 0.5, 100.0, 25.0,
+                                      std::nullopt));
 
   MotionRecord home = motion(MotionKind::kJointMove, {0.0, -30.0, 45.0, 0.0, 60.0, 0.0},
                              {600.0, 0.0, 700.0}, 12.7, 2.0);

@@ -1,5 +1,6 @@
 #include <catch2/catch.hpp>
 #include <sstream>
+#include <vector>
 
 #include "kinematics/input_error.hpp"
 #include "postproc/program_template.hpp"
@@ -55,40 +56,28 @@ TEST_CASE("The sample stepcard template renders the sample program", "[template]
 }
 
 TEST_CASE("Template errors name the template line", "[template]") {
-  SECTION("an unknown placeholder") {
-    const tw::InputError error =
-        parseError(kHeader + "@@ joint-move\nCARD [[n]]\nCARD [[speed]]\n");
+  struct BadTemplate {
+    std::string text;
+    int line;
+    std::string message;
+  };
+  const std::vector<BadTemplate> cases = {
+      {kHeader + "@@ joint-move\nCARD [[n]]\nCARD [[speed]]\n", 5, "unknown placeholder [[speed]]"},
+      {kHeader + "start [[x]]\n", 3, "cannot be used in the 'header' section"},
+      {kHeader + "[[job;2]]\n", 3, "takes no decimals"},
+      {kHeader + "[[cycle_time;13]]\n", 3, "with D from 0 to 12 decimals"},
+      {kHeader + "@@ footer\nend [[job\n", 4, "no closing ']]'"},
+      {"@@ header\nbegin\n", 1, "[[caution]]"},
+      {kHeader + "@@ circle-move\n", 3, "unknown section '@@ circle-move'"},
+      {kHeader + "@@ footer\n@@ footer\n", 4, "the section '@@ footer' is given twice"},
+      {"begin\n" + kHeader, 1, "text before the first section"},
+  };
+  for (const BadTemplate& bad : cases) {
+    CAPTURE(bad.text);
+    const tw::InputError error = parseError(bad.text);
     CHECK(error.file() == "dialect.twt");
-    CHECK(error.line() == 5);
-    CHECK_THAT(error.message(), Catch::Contains("unknown placeholder [[speed]]"));
-  }
-  SECTION("a placeholder outside its section") {
-    const tw::InputError error = parseError(kHeader + "start [[x]]\n");
-    CHECK(error.line() == 3);
-    CHECK_THAT(error.message(), Catch::Contains("cannot be used in the 'header' section"));
-  }
-  SECTION("decimals on text") {
-    const tw::InputError error = parseError(kHeader + "[[job;2]]\n");
-    CHECK(error.line() == 3);
-    CHECK_THAT(error.message(), Catch::Contains("takes no decimals"));
-  }
-  SECTION("an unclosed placeholder") {
-    const tw::InputError error = parseError(kHeader + "@@ footer\nend [[job\n");
-    CHECK(error.line() == 4);
-    CHECK_THAT(error.message(), Catch::Contains("no closing ']]'"));
-  }
-  SECTION("a header without the caution") {
-    const tw::InputError error = parseError("@@ header\nbegin\n");
-    CHECK_THAT(error.message(), Catch::Contains("[[caution]]"));
-  }
-  SECTION("an unknown section") {
-    const tw::InputError error = parseError(kHeader + "@@ circle-move\n");
-    CHECK(error.line() == 3);
-    CHECK_THAT(error.message(), Catch::Contains("unknown section '@@ circle-move'"));
-  }
-  SECTION("a section given twice") {
-    const tw::InputError error = parseError(kHeader + "@@ footer\n@@ footer\n");
-    CHECK(error.line() == 4);
+    CHECK(error.line() == bad.line);
+    CHECK_THAT(error.message(), Catch::Contains(bad.message));
   }
 }
 
