@@ -4,6 +4,7 @@
 #include <cmath>
 #include <set>
 
+#include "kinematics/arm_model.hpp"
 #include "kinematics/input_error.hpp"
 
 namespace tw::planner {
@@ -192,6 +193,14 @@ double cycleTime(const Program& program) {
   double end = 0.0;
   for (const ProgramRecord& record : program.records) end = std::max(end, endTime(record));
   return end;
+}
+
+std::vector<ProgramJoint> programJoints(const kinematics::ArmModel& arm) {
+  std::vector<ProgramJoint> joints;
+  for (const kinematics::JointSpec& joint : arm.joints()) {
+    joints.push_back({joint.name, joint.type, joint.lower, joint.upper});
+  }
+  return joints;
 }
 
 kinematics::JointVector jointLimitMargins(const ProgramMetadata& metadata,

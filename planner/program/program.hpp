@@ -9,6 +9,10 @@
 
 #include "kinematics/joint.hpp"
 
+namespace tw::kinematics {
+class ArmModel;
+}
+
 namespace tw::planner {
 
 enum class MotionKind { kJointMove, kLinearMove };
@@ -135,6 +139,10 @@ void checkProgram(const Program& program, const std::string& source);
 
 /// Time from the program start to the end of its last motion or event [s].
 double cycleTime(const Program& program);
+
+/// The joints of `arm` (names, types, position limits) for
+/// ProgramMetadata::joints.
+std::vector<ProgramJoint> programJoints(const kinematics::ArmModel& arm);
 
 /// Distance of each joint value to its nearer limit, per joint [rad] or [m];
 /// negative outside the limits. `q` holds one value per metadata joint.

@@ -1,6 +1,9 @@
 #include "planner/program/sha256.hpp"
 
 #include <algorithm>
+#include <fstream>
+
+#include "kinematics/input_error.hpp"
 
 namespace tw::planner {
 namespace {
@@ -102,9 +105,9 @@ void Sha256::compress(const std::uint8_t* block) {
   state_[7] += h;
 }
 
-std::string sha256Hex(std::string_view bytes) {
-  Sha256 hash;
-  hash.update(bytes);
+namespace {
+
+std::string hexDigest(Sha256& hash) {
   const std::array<std::uint8_t, 32> digest = hash.finish();
   constexpr char kHex[] = "0123456789abcdef";
   std::string text;
@@ -114,6 +117,27 @@ std::string sha256Hex(std::string_view bytes) {
     text += kHex[byte & 0x0f];
   }
   return text;
+}
+
+}  // namespace
+
+std::string sha256Hex(std::string_view bytes) {
+  Sha256 hash;
+  hash.update(bytes);
+  return hexDigest(hash);
+}
+
+std::string sha256OfFile(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw InputError(path, 0, "cannot open the input file to hash it");
+  Sha256 hash;
+  std::array<char, 65536> buffer{};
+  while (in) {
+    in.read(buffer.data(), static_cast<std::streamsize>(buffer.size()));
+    hash.update(std::string_view(buffer.data(), static_cast<std::size_t>(in.gcount())));
+  }
+  if (!in.eof()) throw InputError(path, 0, "reading the input file to hash it failed");
+  return hexDigest(hash);
 }
 
 }  // namespace tw::planner

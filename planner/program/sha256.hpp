@@ -29,4 +29,9 @@ class Sha256 {
 /// SHA-256 of `bytes` as 64 lower-case hex digits.
 std::string sha256Hex(std::string_view bytes);
 
+/// SHA-256 of the file at `path`, read in binary, as 64 lower-case hex
+/// digits (for InputFileHash); throws tw::InputError naming the file when it
+/// cannot be read.
+std::string sha256OfFile(const std::string& path);
+
 }  // namespace tw::planner

@@ -1,4 +1,5 @@
 #include <catch2/catch.hpp>
+#include <random>
 #include <sstream>
 
 #include "kinematics/input_error.hpp"
@@ -198,4 +199,34 @@ TEST_CASE("The example in FORMAT.md is a valid motion text file", "[motion-text]
   const Program example = readMotionText(format.substr(start, end - start), "FORMAT.md");
   REQUIRE(example.records.size() == 4);
   CHECK(std::get<ProcessEvent>(example.records[1]).parameter_set == "steel_2mm");
+}
+
+TEST_CASE("The reader answers random edits with its own error or a valid program",
+          "[motion-text]") {
+  const std::string good = motionText(test::sampleProgram());
+  const std::size_t body_size = good.rfind("integrity sha256=");
+  const std::string alphabet = "0123456789.,-+=\" e#\\abcnz_";
+  std::mt19937 random(20261201);  // fixed seed: the same edits on every run
+  int accepted = 0;
+  for (int trial = 0; trial < 400; ++trial) {
+    std::string edited = good.substr(0, body_size);
+    const std::size_t at = std::uniform_int_distribution<std::size_t>(0, body_size - 1)(random);
+    const char c = alphabet[std::uniform_int_distribution<std::size_t>(0, alphabet.size() - 1)(random)];
+    const int how = std::uniform_int_distribution<int>(0, 2)(random);
+    if (how == 0) edited[at] = c;
+    if (how == 1) edited.erase(at, 1);
+    if (how == 2) edited.insert(at, 1, c);
+    edited = resealed(edited + "integrity sha256=\n");
+    CAPTURE(trial, at, c, how);
+    try {
+      const Program read = readMotionText(edited, "edited.twm");
+      // An edit the reader accepts must give a program that writes and reads back.
+      CHECK_NOTHROW(readMotionText(motionText(read), "rewritten.twm"));
+      ++accepted;
+    } catch (const tw::InputError& error) {
+      CHECK_THAT(error.what(), Catch::StartsWith("edited.twm:"));
+    }
+  }
+  // Most single-byte edits break a field; some (a comment, a digit) do not.
+  CHECK(accepted < 400);
 }

@@ -1,6 +1,7 @@
 #include <catch2/catch.hpp>
 #include <cmath>
 
+#include "kinematics/arm_model.hpp"
 #include "kinematics/input_error.hpp"
 #include "planner/program/program.hpp"
 #include "sample_program.hpp"
@@ -92,4 +93,33 @@ TEST_CASE("Cycle time and joint-limit margins of the sample program", "[program]
     // Degree-radian conversion rounding only.
     CHECK(margins[i] * 180.0 / M_PI == Approx(expected_deg[i]).margin(1e-9));
   }
+}
+
+TEST_CASE("programJoints copies names, types and limits from the arm model", "[program]") {
+  tw::kinematics::ArmDescription description;
+  description.name = "track_and_axis";
+  tw::kinematics::JointSpec track;
+  track.name = "track";
+  track.type = tw::kinematics::JointType::kPrismatic;
+  track.axis = Eigen::Vector3d::UnitX();
+  track.lower = 0.0;
+  track.upper = 4.0;
+  track.max_velocity = 1.0;
+  track.max_acceleration = 2.0;
+  tw::kinematics::JointSpec axis = track;
+  axis.name = "axis_1";
+  axis.type = tw::kinematics::JointType::kRevolute;
+  axis.axis = Eigen::Vector3d::UnitZ();
+  axis.lower = -3.0;
+  axis.upper = 3.0;
+  description.joints = {track, axis};
+  const tw::kinematics::ArmModel arm(description);
+
+  const std::vector<ProgramJoint> joints = programJoints(arm);
+  REQUIRE(joints.size() == 2);
+  CHECK(joints[0].name == "track");
+  CHECK(joints[0].type == tw::kinematics::JointType::kPrismatic);
+  CHECK(joints[0].upper == 4.0);
+  CHECK(joints[1].name == "axis_1");
+  CHECK(joints[1].lower == -3.0);
 }

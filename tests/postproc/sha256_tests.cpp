@@ -1,10 +1,13 @@
 #include <catch2/catch.hpp>
+#include <fstream>
 #include <string>
 
+#include "kinematics/input_error.hpp"
 #include "planner/program/sha256.hpp"
 
 using tw::planner::Sha256;
 using tw::planner::sha256Hex;
+using tw::planner::sha256OfFile;
 
 TEST_CASE("SHA-256 reproduces the published test vectors", "[sha256]") {
   // FIPS 180-4 examples (NIST CSRC "SHA256.pdf", one-block and two-block
@@ -43,4 +46,17 @@ TEST_CASE("SHA-256 pads messages of 55, 56 and 64 bytes correctly", "[sha256]") 
         "b35439a4ac6f0948b6d6f9e3c6af0f5f590ce20f1bde7090ef7970686ec6738a");
   CHECK(sha256Hex(std::string(64, 'a')) ==
         "ffe054fe7ae0cb6dc65c3af9b61d5209f439851db43d0ba5997337df154668eb");
+}
+
+TEST_CASE("SHA-256 of a file equals SHA-256 of its bytes", "[sha256]") {
+  const std::string path = std::string(TW_TEST_OUTPUT_DIR) + "/sha256_input.txt";
+  // 200,000 bytes: more than one read buffer of sha256OfFile.
+  std::string content;
+  for (int i = 0; i < 200000; ++i) content += static_cast<char>('a' + i % 26);
+  {
+    std::ofstream out(path, std::ios::binary | std::ios::trunc);
+    out << content;
+  }
+  CHECK(sha256OfFile(path) == sha256Hex(content));
+  CHECK_THROWS_AS(sha256OfFile(path + ".missing"), tw::InputError);
 }
