@@ -208,6 +208,10 @@ class MotionTextParser {
   }
 
   void checkFirstLine(const TextLine& line) {
+    if (line.text.substr(0, std::string_view(kMotionTextKeyword).size()) != kMotionTextKeyword) {
+      fail(line.number, "not a tracewright motion text file; expected the first line '" +
+                            firstLine() + "'");
+    }
     const KeyValueLine parsed = parseKeyValueLine(line.text, file_, line.number);
     FieldReader fields(parsed, file_, line.number);
     if (parsed.keyword != kMotionTextKeyword || !fields.has("version")) {

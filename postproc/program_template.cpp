@@ -355,7 +355,7 @@ ProgramTemplate ProgramTemplate::load(const std::string& path) {
 }
 
 void ProgramTemplate::render(const Program& program, std::ostream& out) const {
-  planner::checkProgram(program, file_);
+  planner::checkProgram(program, "program for template " + file_);
   RenderContext context{program, fileQuantities(program.metadata.units), safetyCaution(program)};
   const Renderer renderer(file_, context);
   std::string text;

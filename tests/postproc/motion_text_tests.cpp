@@ -167,6 +167,11 @@ TEST_CASE("The motion text reader rejects damaged files with file:line errors",
     CHECK(error.line() == 1);
     CHECK_THAT(error.message(), Catch::Contains("unsupported motion text version '2'"));
   }
+  SECTION("a file of another kind") {
+    const tw::InputError error = readError("\nsolid part\n");
+    CHECK(error.line() == 1);
+    CHECK_THAT(error.message(), Catch::Contains("not a tracewright motion text file"));
+  }
   SECTION("an unknown field") {
     const tw::InputError error =
         readError(resealed(replaced(good, " blend=10.000", " blend=10.000 colour=red")));
