@@ -87,6 +87,7 @@ class SummaryBuilder {
     const double span = seam ? last_time - first_time.value_or(0.0) : planner::cycleTime(program_);
     result[seam ? "time" : "cycle_time"] = rounded(quantities_.time, span);
     result["process_time"] = rounded(quantities_.time, process_time);
+    result["air_time"] = rounded(quantities_.time, span - process_time);
     result["min_clearance"] = located(clearance, quantities_.length);
     result["min_singularity_margin"] = located(singularity, quantities_.angle);
     if (relative_limit.value) {

@@ -119,3 +119,14 @@ TEST_CASE("Sampled joint-table rows interpolate between records", "[joint-table]
 TEST_CASE("The joint table refuses a sample period below 1 ms", "[joint-table]") {
   CHECK_THROWS_AS(jointTable(test::sampleProgram(), 1e-5), tw::InputError);
 }
+
+TEST_CASE("Joint-table text with commas or quotes is quoted as RFC 4180 says", "[joint-table]") {
+  tw::planner::Program program = test::sampleProgram();
+  program.metadata.joints[0].name = "axis \"1\", base";
+  std::get<tw::planner::MotionRecord>(program.records[1]).seam = "seam 1, left";
+  const std::string text = jointTable(program);
+  // RFC 4180 §2 rules 6 and 7: enclose in quotes, double the inner quotes.
+  CHECK_THAT(text, Catch::StartsWith("record,kind,time_s,duration_s,seam,process_set,"
+                                     "\"axis \"\"1\"\", base_deg\","));
+  CHECK_THAT(text, Catch::Contains("\n2,linear-move,2.1000,0.6000,\"seam 1, left\",,"));
+}

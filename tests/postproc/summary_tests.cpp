@@ -38,6 +38,7 @@ TEST_CASE("The summary holds the figures of the sample program", "[summary]") {
   CHECK(total.at("waypoints") == 6);
   CHECK(total.at("cycle_time").get<double>() == Approx(14.7).margin(1e-9));
   CHECK(total.at("process_time").get<double>() == Approx(10.1).margin(1e-9));
+  CHECK(total.at("air_time").get<double>() == Approx(4.6).margin(1e-9));
   CHECK(total.at("min_clearance").at("value").get<double>() == Approx(8.0).margin(1e-9));
   CHECK(total.at("min_clearance").at("record") == 4);
   CHECK(total.at("min_singularity_margin").at("value").get<double>() ==
@@ -78,4 +79,18 @@ TEST_CASE("The summary warns below the margins and above the reduced speed", "[s
   CHECK_THAT(warnings[3], Catch::StartsWith("record 7 (seam_1): TCP speed 300.000 mm/s is above"));
   CHECK_THAT(summary.at("caution").back().get<std::string>(),
              Catch::Contains("1 linear motion(s) are programmed faster than 250 mm/s"));
+}
+
+TEST_CASE("Figures the planner did not measure are null in the summary", "[summary]") {
+  tw::planner::Program program = test::sampleProgram();
+  for (auto& record : program.records) {
+    if (auto* motion = std::get_if<tw::planner::MotionRecord>(&record)) {
+      motion->clearance.reset();
+      motion->singularity_margin.reset();
+    }
+  }
+  const json summary = json::parse(summaryText(program, WriteOptions{}));
+  CHECK(summary.at("total").at("min_clearance").is_null());
+  CHECK(summary.at("seams").at(0).at("min_singularity_margin").is_null());
+  CHECK(summary.at("total").at("tightest_joint_limit_margin").at("joint") == "axis_5");
 }
