@@ -80,7 +80,8 @@ TEST_CASE("findProgramProblem names the first inconsistency and its record", "[p
 
 TEST_CASE("Cycle time and joint-limit margins of the sample program", "[program]") {
   Program program = sampleProgram();
-  // The home move starts at 12.7 s and lasts 2.0 s (sample data).
+  // The home move starts at 12.7 s and lasts 2.0 s (sample data); the margin
+  // covers the rounding of one double addition.
   CHECK(cycleTime(program) == Approx(14.7).margin(1e-12));
 
   // Record 1 at (10, -20, 30, 0, 45, -15)° against ±(170, 120, 150, 190, 125,

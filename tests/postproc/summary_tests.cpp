@@ -33,7 +33,9 @@ TEST_CASE("The summary holds the figures of the sample program", "[summary]") {
   CHECK(summary.at("caution").size() >= 4);
 
   // Hand arithmetic on the sample data: six motions; the home move ends at
-  // 12.7 + 2.0 s; the arc is on from 2.1 to 12.2 s.
+  // 12.7 + 2.0 s; the arc is on from 2.1 to 12.2 s. The JSON holds values
+  // rounded to the printed decimals, so 1e-9 only absorbs the decimal-to-
+  // binary conversion of those short numbers.
   const json& total = summary.at("total");
   CHECK(total.at("waypoints") == 6);
   CHECK(total.at("cycle_time").get<double>() == Approx(14.7).margin(1e-9));
