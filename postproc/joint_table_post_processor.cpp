@@ -50,7 +50,7 @@ class TableWriter {
   void header() {
     const std::string& time = quantities_.time.unit;
     const std::string& length = quantities_.length.unit;
-    std::string line = "record,kind,time_" + time + ",duration_" + time + ",seam,process_set";
+    std::string line = "record,kind,time_" + time + ",duration_" + time + ",seam,process_set,branch";
     for (const planner::ProgramJoint& joint : program_.metadata.joints) {
       line += ',' + csvField(joint.name + '_' + quantities_.joint(joint.type).unit);
     }
@@ -66,7 +66,7 @@ class TableWriter {
   void event(std::size_t number, const ProcessEvent& event) {
     std::string line = std::to_string(number) + ',' + toString(event.kind) + ',' +
                        quantities_.time.format(event.time) + ",," + csvField(event.seam) + ',' +
-                       csvField(event.parameter_set);
+                       csvField(event.parameter_set) + ',';
     // Joints, pose (7), speeds and blend (3), margins, singularity, clearance.
     const std::size_t empty = 2 * program_.metadata.joints.size() + 7 + 3 + 2;
     out_ << line << std::string(empty, ',') << '\n';
@@ -77,7 +77,7 @@ class TableWriter {
     std::string line = std::to_string(row.record) + ',' + row.kind + ',' +
                        quantities_.time.format(row.time) + ',' +
                        (row.duration ? quantities_.time.format(*row.duration) : "") + ',' +
-                       csvField(motion.seam) + ',';
+                       csvField(motion.seam) + ",," + csvField(motion.branch);
     for (int i = 0; i < row.q.size(); ++i) line += ',' + jointValue(i, row.q[i]);
     const Eigen::Vector3d p_RT = row.X_RT.translation();
     const Eigen::Quaterniond orientation = canonicalQuaternion(row.X_RT);

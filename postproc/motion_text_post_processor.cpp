@@ -38,6 +38,7 @@ std::string motionLine(const Program& program, const FileQuantities& quantities,
   }
   line += " blend=" + quantities.length.format(motion.blend_radius);
   if (!motion.seam.empty()) line += " seam=" + quoteText(motion.seam);
+  if (!motion.branch.empty()) line += " branch=" + quoteText(motion.branch);
   if (motion.clearance) line += " clearance=" + quantities.length.format(*motion.clearance);
   if (motion.singularity_margin) {
     line += " singularity_margin=" + quantities.angle.format(*motion.singularity_margin);

@@ -391,6 +391,7 @@ class MotionTextParser {
                              : fields.number("joint_speed", quantities_.fraction);
     motion.blend_radius = fields.number("blend", quantities_.length);
     motion.seam = fields.optionalText("seam").value_or("");
+    motion.branch = fields.optionalText("branch").value_or("");
     motion.clearance = fields.optionalNumber("clearance", quantities_.length);
     motion.singularity_margin = fields.optionalNumber("singularity_margin", quantities_.angle);
     return motion;

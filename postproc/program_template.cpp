@@ -41,6 +41,7 @@ constexpr PlaceholderSpec kPlaceholders[] = {
     {"start", Scope::kMotion, true},          {"duration", Scope::kMotion, true},
     {"end", Scope::kMotion, true},            {"tool", Scope::kMotion, false},
     {"frame", Scope::kMotion, false},         {"joints", Scope::kMotion, true},
+    {"branch", Scope::kMotion, false},
     {"x", Scope::kMotion, true},              {"y", Scope::kMotion, true},
     {"z", Scope::kMotion, true},              {"qw", Scope::kMotion, true},
     {"qx", Scope::kMotion, true},             {"qy", Scope::kMotion, true},
@@ -238,6 +239,7 @@ class Renderer {
     if (name == "seam") return motion.seam;
     if (name == "tool") return motion.tool;
     if (name == "frame") return motion.frame;
+    if (name == "branch") return motion.branch;
     if (name == "start") return number(segment, motion.start_time, q.time);
     if (name == "duration") return number(segment, motion.duration, q.time);
     if (name == "end") return number(segment, motion.start_time + motion.duration, q.time);

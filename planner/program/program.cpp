@@ -84,6 +84,7 @@ std::optional<std::string> motionProblem(const ProgramMetadata& meta, const Moti
   if (auto problem = textProblem("tool id", motion.tool, false)) return problem;
   if (auto problem = textProblem("frame id", motion.frame, false)) return problem;
   if (auto problem = textProblem("seam name", motion.seam, true)) return problem;
+  if (auto problem = textProblem("branch", motion.branch, true)) return problem;
   if (!std::isfinite(motion.speed.value) || motion.speed.value <= 0.0) {
     return std::string("speed must be positive");
   }

@@ -48,6 +48,9 @@ struct MotionRecord {
   /// The seam this motion belongs to (its approach, process moves, retract);
   /// empty for transits and other moves outside any seam.
   std::string seam;
+  /// The IK branch of `q` in words, e.g. "shoulder front, elbow up, wrist
+  /// not flipped"; empty when the planner does not say.
+  std::string branch;
   /// Smallest distance between arm + tool and the cell during the motion [m],
   /// when the planner has measured it.
   std::optional<double> clearance;

@@ -19,21 +19,32 @@ std::string jointTable(const tw::planner::Program& program, double sample_period
   return out.str();
 }
 
-/// Rows of the table as column-name → text maps. The sample program has no
-/// commas or quotes in its names, so a plain split is a faithful CSV parse.
+/// The cells of one CSV row: RFC 4180 §2, fields optionally in double
+/// quotes, a doubled quote inside standing for one.
+std::vector<std::string> splitCsvRow(const std::string& row) {
+  std::vector<std::string> cells(1);
+  bool quoted = false;
+  for (std::size_t i = 0; i < row.size(); ++i) {
+    const char c = row[i];
+    if (quoted && c == '"' && i + 1 < row.size() && row[i + 1] == '"') {
+      cells.back() += '"';
+      ++i;
+    } else if (c == '"') {
+      quoted = !quoted;
+    } else if (c == ',' && !quoted) {
+      cells.emplace_back();
+    } else {
+      cells.back() += c;
+    }
+  }
+  return cells;
+}
+
+/// Rows of the table as column-name → text maps.
 std::vector<std::map<std::string, std::string>> parseTable(const std::string& text) {
   std::istringstream in(text);
   std::string line;
-  const auto split = [](const std::string& row) {
-    std::vector<std::string> cells;
-    std::size_t start = 0;
-    while (true) {
-      const std::size_t comma = row.find(',', start);
-      cells.push_back(row.substr(start, comma - start));
-      if (comma == std::string::npos) return cells;
-      start = comma + 1;
-    }
-  };
+  const auto split = splitCsvRow;
   std::getline(in, line);
   const std::vector<std::string> header = split(line);
   std::vector<std::map<std::string, std::string>> rows;
@@ -59,7 +70,7 @@ TEST_CASE("The joint table reads back with the expected columns and values", "[j
   const std::string text = jointTable(test::sampleProgram());
   const std::string header = text.substr(0, text.find('\n'));
   CHECK(header ==
-        "record,kind,time_s,duration_s,seam,process_set,axis_1_deg,axis_2_deg,axis_3_deg,"
+        "record,kind,time_s,duration_s,seam,process_set,branch,axis_1_deg,axis_2_deg,axis_3_deg,"
         "axis_4_deg,axis_5_deg,axis_6_deg,x_mm,y_mm,z_mm,qw,qx,qy,qz,tcp_speed_mm_s,"
         "joint_speed_fraction,blend_mm,axis_1_margin_deg,axis_2_margin_deg,axis_3_margin_deg,"
         "axis_4_margin_deg,axis_5_margin_deg,axis_6_margin_deg,singularity_margin_deg,"
@@ -84,6 +95,8 @@ TEST_CASE("The joint table reads back with the expected columns and values", "[j
   // Rz(30°)·Rx(180°) as a quaternion: (0, cos 15°, sin 15°, 0) (hand derivation).
   CHECK(weld.at("qx") == "0.965925826");
   CHECK(weld.at("qy") == "0.258819045");
+
+  CHECK(weld.at("branch") == "shoulder front, elbow up, wrist not flipped");
 
   const auto& arc_on = rows[2];
   CHECK(arc_on.at("kind") == "process-on");
@@ -126,7 +139,7 @@ TEST_CASE("Joint-table text with commas or quotes is quoted as RFC 4180 says", "
   std::get<tw::planner::MotionRecord>(program.records[1]).seam = "seam 1, left";
   const std::string text = jointTable(program);
   // RFC 4180 §2 rules 6 and 7: enclose in quotes, double the inner quotes.
-  CHECK_THAT(text, Catch::StartsWith("record,kind,time_s,duration_s,seam,process_set,"
+  CHECK_THAT(text, Catch::StartsWith("record,kind,time_s,duration_s,seam,process_set,branch,"
                                      "\"axis \"\"1\"\", base_deg\","));
-  CHECK_THAT(text, Catch::Contains("\n2,linear-move,2.1000,0.6000,\"seam 1, left\",,"));
+  CHECK_THAT(text, Catch::Contains("\n2,linear-move,2.1000,0.6000,\"seam 1, left\",,\"shoulder front, elbow up, wrist not flipped\","));
 }

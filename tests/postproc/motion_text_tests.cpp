@@ -94,6 +94,7 @@ TEST_CASE("Motion text round-trips within the printed precision", "[motion-text]
       CHECK(actual.tool == expected->tool);
       CHECK(actual.frame == expected->frame);
       CHECK(actual.seam == expected->seam);
+      CHECK(actual.branch == expected->branch);
       CHECK(actual.speed.kind == expected->speed.kind);
       // Half a unit of the last digit: TCP speed 3 decimals in mm/s (0.5e-6 m/s),
       // joint speed fraction 4 decimals.

@@ -32,6 +32,7 @@ MotionRecord motion(MotionKind kind, std::initializer_list<double> q_deg,
   record.X_RT.translation() = p_RT_mm / 1000.0;
   record.tool = "torch_22deg";
   record.frame = "fixture_a";
+  record.branch = "shoulder front, elbow up, wrist not flipped";
   record.start_time = start;
   record.duration = duration;
   return record;
