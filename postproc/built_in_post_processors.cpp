@@ -1,0 +1,18 @@
+#include <memory>
+
+#include "postproc/joint_table_post_processor.hpp"
+#include "postproc/motion_text_post_processor.hpp"
+#include "postproc/post_processor_registry.hpp"
+#include "postproc/summary_post_processor.hpp"
+#include "postproc/template_post_processor.hpp"
+
+namespace tw::postproc {
+
+void registerBuiltInPostProcessors(PostProcessorRegistry& registry) {
+  registry.add(std::make_unique<MotionTextPostProcessor>());
+  registry.add(std::make_unique<JointTablePostProcessor>());
+  registry.add(std::make_unique<SummaryPostProcessor>());
+  registry.add(std::make_unique<TemplatePostProcessor>());
+}
+
+}  // namespace tw::postproc
