@@ -1,5 +1,6 @@
 #include "planner/process_angles.hpp"
 
+#include <Eigen/Geometry>
 #include <cmath>
 
 namespace tw::planner {
@@ -20,7 +21,8 @@ double measuredTravelAngle(const Eigen::Vector3d& tool_z, const Eigen::Vector3d&
 }
 
 double rawAngleToNormal(const Eigen::Vector3d& tool_z, const Eigen::Vector3d& face_normal) {
-  return std::atan2((-tool_z).cross(face_normal).norm(), -tool_z.dot(face_normal));
+  const Eigen::Vector3d away = -tool_z;
+  return std::atan2(away.cross(face_normal).norm(), away.dot(face_normal));
 }
 
 }  // namespace tw::planner

@@ -8,20 +8,23 @@
 namespace tw::planner {
 namespace {
 
-// Blends shorter than this have no direction (opposite inputs).
-constexpr double kMinBlend = 1e-9;
 // Above this a "smooth" vertex could be a near reversal with no mean direction.
 constexpr double kMaxCornerAngle = 170.0 * 3.14159265358979323846 / 180.0;
 
-Eigen::Vector3d blended(const Eigen::Vector3d& a, const Eigen::Vector3d& b, double f,
-                        const std::string& source, int line, const char* what) {
-  const Eigen::Vector3d mix = (1.0 - f) * a + f * b;
-  if (mix.norm() < kMinBlend) {
-    throw InputError(source, line, std::string("the ") + what +
-                                       " of this point and the next point are opposite; they "
-                                       "cannot be interpolated");
+/// Unit direction between two unit vectors less than 90° apart (their
+/// linear blend is then at least 1/√2 long, never zero).
+Eigen::Vector3d blended(const Eigen::Vector3d& a, const Eigen::Vector3d& b, double f) {
+  return ((1.0 - f) * a + f * b).normalized();
+}
+
+void checkNormalTurn(const std::optional<Eigen::Vector3d>& a, const std::optional<Eigen::Vector3d>& b,
+                     const std::string& source, int line, const char* what) {
+  if (a && b && a->dot(*b) < 0.0) {
+    throw InputError(source, line,
+                     std::string("the ") + what +
+                         " turns by more than 90 degrees from the previous point; add points in "
+                         "between or check its sign");
   }
-  return mix.normalized();
 }
 
 /// A run of segments [first, last) between two corners or ends.
@@ -52,6 +55,9 @@ std::vector<SeamSample> sampleSeam(const SeamPointList& list, const SamplingOpti
       throw InputError(list.source, p[i + 1].line, "this point repeats the previous one");
     }
     direction[i] = d / length[i];
+    checkNormalTurn(p[i].normal, p[i + 1].normal, list.source, p[i + 1].line, "surface normal");
+    checkNormalTurn(p[i].second_normal, p[i + 1].second_normal, list.source, p[i + 1].line,
+                    "second normal");
   }
 
   // Split at corners; within a span every vertex gets one tangent.
@@ -102,13 +108,12 @@ std::vector<SeamSample> sampleSeam(const SeamPointList& list, const SamplingOpti
       const SeamPoint& b = p[segment + 1];
       SeamSample sample;
       sample.p_XP = j == 0 ? a.p_XP : (j == pieces ? b.p_XP : a.p_XP + f * (b.p_XP - a.p_XP));
+      // Neighbouring vertex tangents differ by less than the corner angle.
       sample.tangent = blended(vertex_tangent[segment - span.first],
-                               vertex_tangent[segment - span.first + 1], f, list.source, a.line,
-                               "travel directions");
-      sample.normal = blended(a.normal, b.normal, f, list.source, a.line, "surface normals");
+                               vertex_tangent[segment - span.first + 1], f);
+      sample.normal = blended(a.normal, b.normal, f);
       if (a.second_normal && b.second_normal) {
-        sample.second_normal =
-            blended(*a.second_normal, *b.second_normal, f, list.source, a.line, "second normals");
+        sample.second_normal = blended(*a.second_normal, *b.second_normal, f);
       }
       if (a.speed && b.speed) sample.speed = (1.0 - f) * *a.speed + f * *b.speed;
       sample.arc_length = span_start_s + s;

@@ -43,9 +43,10 @@ struct SeamSample {
 /// speeds are interpolated linearly by arc length (normals renormalised).
 ///
 /// Throws tw::InputError (located at the point's line in points.source) for
-/// fewer than two points, coincident consecutive points, neighbouring
-/// normals that cancel out under interpolation (they point opposite ways),
-/// a direction reversal (a turn of 180°), or a non-positive step.
+/// fewer than two points, coincident consecutive points, a normal (or second
+/// normal) turning by more than 90° from one point to the next (a sign error
+/// or a list too sparse to interpolate), a direction reversal (a turn of
+/// 180°), a non-positive step or a corner angle outside (0°, 170°].
 std::vector<SeamSample> sampleSeam(const SeamPointList& points, const SamplingOptions& options);
 
 }  // namespace tw::planner
