@@ -112,8 +112,12 @@ class JobFileReader {
     }
 
     const XMLElement* process = element.FirstChildElement();
-    if (process == nullptr || process->NextSiblingElement() != nullptr) {
+    if (process == nullptr) {
       file_.fail(element, "expected exactly one process element: <weld>, <paint> or <dispense>");
+    }
+    if (process->NextSiblingElement() != nullptr) {
+      file_.fail(*process->NextSiblingElement(),
+                 "a seam has exactly one process element: <weld>, <paint> or <dispense>");
     }
     seam.process = readProcess(*process);
     seam.points = loadSeamPointsCsv(resolvePath(file_, file_.text(element, "points")));
