@@ -1,5 +1,7 @@
 #include "planner/cell_loader.hpp"
 
+#include <array>
+#include <charconv>
 #include <set>
 
 #include "kinematics/arm_loader.hpp"
@@ -11,6 +13,13 @@ namespace {
 
 using kinematics::XmlFile;
 using tinyxml2::XMLElement;
+
+/// Shortest text that reads back as `value`, independent of the locale.
+std::string numberText(double value) {
+  std::array<char, 32> buffer{};
+  const std::to_chars_result result = std::to_chars(buffer.data(), buffer.data() + buffer.size(), value);
+  return std::string(buffer.data(), result.ptr);
+}
 
 /// Reads one cell file; keeps it open for located errors.
 class CellFileReader {
@@ -133,12 +142,16 @@ class CellFileReader {
         readNumbers(file_, element, "joints", static_cast<std::size_t>(arm.jointCount()));
     kinematics::JointVector home(arm.jointCount());
     for (int i = 0; i < arm.jointCount(); ++i) {
-      const bool revolute = arm.joint(i).type == kinematics::JointType::kRevolute;
+      const kinematics::JointSpec& joint = arm.joint(i);
+      const bool revolute = joint.type == kinematics::JointType::kRevolute;
       home[i] = (revolute ? kDegToRad : kMmToM) * values[i];
-    }
-    if (!arm.withinLimits(home)) {
-      file_.fail(element, "the home position is outside the joint limits of arm '" + arm.name() +
-                              "'");
+      if (home[i] < joint.lower || home[i] > joint.upper) {
+        const double scale = revolute ? 1.0 / kDegToRad : 1.0 / kMmToM;
+        file_.fail(element, "home value " + std::to_string(i + 1) + " (joint '" + joint.name +
+                                "') is outside the joint limits " + numberText(scale * joint.lower) +
+                                " to " + numberText(scale * joint.upper) +
+                                (revolute ? " deg" : " mm") + " of arm '" + arm.name() + "'");
+      }
     }
     return home;
   }

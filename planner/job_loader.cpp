@@ -258,7 +258,7 @@ class JobFileReader {
       if (!files.insert(request.path).second) {
         file_.fail(*output, "file '" + request.path + "' is already written by another <output>");
       }
-      request.path = job.output_directory + "/" + request.path;
+      if (request.path.front() != '/') request.path = job.output_directory + "/" + request.path;
       job.outputs.push_back(std::move(request));
     }
   }

@@ -130,7 +130,7 @@ TEST_CASE("Every malformed cell element is a located error", "[planner][cell][er
       {"home too short", R"(joints="0 -20 10 0 60 0")", R"(joints="0 -20 10 0 60")", "<home",
        "must be 6 numbers"},
       {"home outside limits", R"(joints="0 -20 10 0 60 0")", R"(joints="0 -20 10 0 160 0")", "<home",
-       "outside the joint limits"},
+       "home value 5 (joint 'j5') is outside the joint limits -135 to 135 deg"},
       {"mesh without unit", R"( unit="mm")", "", "<mesh", "missing attribute 'unit'"},
       {"zero box size", R"(size="800 1000 400")", R"(size="800 0 400")", "size=", "must be > 0"},
       {"negative radius", R"(radius="50")", R"(radius="-50")", R"(radius="-50")", "must be > 0"},
