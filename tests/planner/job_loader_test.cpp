@@ -11,16 +11,18 @@ constexpr double kPi = 3.14159265358979323846;
 // mm and deg converted once: rounding near 1e-16.
 constexpr double kExact = 1e-12;
 
-std::string validJob() {
-  test::writeTestFile("job_seam.csv",
+/// A valid job; its point list is written as `<prefix>_seam.csv`, so that
+/// test cases run in parallel by ctest never share a file.
+std::string validJob(const std::string& prefix) {
+  test::writeTestFile(prefix + "_seam.csv",
                       "x_mm,y_mm,z_mm,nx,ny,nz,n2x,n2y,n2z\n10,8,8,0,0,1,0,1,0\n140,8,8,0,0,1,0,1,0\n");
   return R"(<?xml version="1.0"?>
 <job format-version="1" name="test-job" length-unit="mm" angle-unit="deg" time-unit="s">
   <cell file=")" + test::sourcePath("samples/cells/bracket_weld_cell.xml") + R"("/>
-  <seam name="a" points="job_seam.csv" frame="bracket" tool="torch" speed="12" approach="25" step="3">
+  <seam name="a" points=")" + prefix + R"(_seam.csv" frame="bracket" tool="torch" speed="12" approach="25" step="3">
     <weld work-angle="40" travel-angle="12" tilt="drag" contact-tip-distance="16"/>
   </seam>
-  <seam name="b" points="job_seam.csv" frame="bracket" tool="torch" speed="30" corner-angle="30">
+  <seam name="b" points=")" + prefix + R"(_seam.csv" frame="bracket" tool="torch" speed="30" corner-angle="30">
     <dispense stand-off="4"/>
   </seam>
   <patch name="c" frame="table-top" tool="torch" speed="400" step="40">
@@ -41,7 +43,7 @@ std::string validJob() {
 }
 
 TEST_CASE("A job file loads its cell, seams, patches, transit and outputs in SI", "[planner][job]") {
-  const std::string path = test::writeTestFile("valid_job.xml", validJob());
+  const std::string path = test::writeTestFile("valid_job.xml", validJob("valid"));
   const Job job = loadJob(path);
   CHECK(job.name == "test-job");
   CHECK(job.cell.name == "bracket-weld-cell");
@@ -129,7 +131,7 @@ TEST_CASE("Every malformed job element is a located error", "[planner][job][erro
   };
   for (const BadJob& c : cases) {
     CAPTURE(c.what);
-    const std::string text = test::replaced(validJob(), c.from, c.to);
+    const std::string text = test::replaced(validJob("bad"), c.from, c.to);
     const std::string path = test::writeTestFile("bad_job.xml", text);
     try {
       loadJob(path);
@@ -144,7 +146,7 @@ TEST_CASE("Every malformed job element is a located error", "[planner][job][erro
 
 TEST_CASE("Point list problems found through a job name the point list", "[planner][job][errors]") {
   SECTION("a missing point list") {
-    const std::string text = test::replaced(validJob(), R"(points="job_seam.csv" frame="bracket" tool="torch" speed="30")",
+    const std::string text = test::replaced(validJob("missing"), R"(points="missing_seam.csv" frame="bracket" tool="torch" speed="30")",
                                             R"(points="missing.csv" frame="bracket" tool="torch" speed="30")");
     const std::string path = test::writeTestFile("missing_csv_job.xml", text);
     CHECK_THROWS_WITH(loadJob(path), Catch::Contains("missing.csv: cannot open"));
@@ -152,7 +154,7 @@ TEST_CASE("Point list problems found through a job name the point list", "[plann
   SECTION("a malformed row, with its line in the point list") {
     const std::string csv = test::writeTestFile(
         "bad_rows.csv", "x_mm,y_mm,z_mm,nx,ny,nz\n0,0,0,0,0,1\n1,0,0,0,0,0\n");
-    const std::string text = test::replaced(validJob(), R"(points="job_seam.csv" frame="bracket" tool="torch" speed="12")",
+    const std::string text = test::replaced(validJob("rows"), R"(points="rows_seam.csv" frame="bracket" tool="torch" speed="12")",
                                             R"(points="bad_rows.csv" frame="bracket" tool="torch" speed="12")");
     const std::string path = test::writeTestFile("bad_rows_job.xml", text);
     CHECK_THROWS_WITH(loadJob(path), Catch::StartsWith(csv + ":3: the surface normal"));
