@@ -63,20 +63,25 @@ class JobFileReader {
   }
 
  private:
-  /// Name, frame and tool of a seam or patch, checked against the cell.
-  void readTarget(const XMLElement& element, const Cell& cell, std::string& name,
-                  std::string& frame, std::string& tool) const {
-    name = file_.text(element, "name");
-    frame = file_.text(element, "frame");
-    tool = file_.text(element, "tool");
-    if (!cell.frames.contains(frame)) {
-      file_.fail(element, "unknown frame '" + frame + "'; expected a frame of cell '" + cell.name +
-                              "' (" + cell.source + ")");
+  /// What seams and patches share: line, name, frame and tool (checked
+  /// against the cell), speed, approach and retract.
+  template <typename Spec>
+  void readCommon(const XMLElement& element, const Cell& cell, Spec& spec) const {
+    spec.line = element.GetLineNum();
+    spec.name = file_.text(element, "name");
+    spec.frame = file_.text(element, "frame");
+    spec.tool = file_.text(element, "tool");
+    if (!cell.frames.contains(spec.frame)) {
+      file_.fail(element, "unknown frame '" + spec.frame + "'; expected a frame of cell '" +
+                              cell.name + "' (" + cell.source + ")");
     }
-    if (cell.findTool(tool) == nullptr) {
-      file_.fail(element, "unknown tool '" + tool + "'; expected a tool of cell '" + cell.name +
-                              "' (" + cell.source + ")");
+    if (cell.findTool(spec.tool) == nullptr) {
+      file_.fail(element, "unknown tool '" + spec.tool + "'; expected a tool of cell '" +
+                              cell.name + "' (" + cell.source + ")");
     }
+    spec.speed = kMmToM * positive(element, "speed");
+    spec.approach = readLengthOr(file_, element, "approach", spec.approach, true);
+    spec.retract = readLengthOr(file_, element, "retract", spec.retract, true);
   }
 
   double positive(const XMLElement& element, const char* attribute) const {
@@ -100,11 +105,7 @@ class JobFileReader {
                               "step", "corner-angle"},
                     {"weld", "paint", "dispense"});
     SeamSpec seam;
-    seam.line = element.GetLineNum();
-    readTarget(element, cell, seam.name, seam.frame, seam.tool);
-    seam.speed = kMmToM * positive(element, "speed");
-    seam.approach = readLengthOr(file_, element, "approach", seam.approach, true);
-    seam.retract = readLengthOr(file_, element, "retract", seam.retract, true);
+    readCommon(element, cell, seam);
     seam.sampling.step = readLengthOr(file_, element, "step", seam.sampling.step);
     if (element.Attribute("corner-angle") != nullptr) {
       seam.sampling.corner_angle =
@@ -161,11 +162,7 @@ class JobFileReader {
     file_.allowOnly(element, {"name", "frame", "tool", "speed", "approach", "retract", "step"},
                     {"outline", "paint"});
     PatchSpec patch;
-    patch.line = element.GetLineNum();
-    readTarget(element, cell, patch.name, patch.frame, patch.tool);
-    patch.speed = kMmToM * positive(element, "speed");
-    patch.approach = readLengthOr(file_, element, "approach", patch.approach, true);
-    patch.retract = readLengthOr(file_, element, "retract", patch.retract, true);
+    readCommon(element, cell, patch);
     patch.step = readLengthOr(file_, element, "step", patch.step);
 
     const XMLElement& outline = file_.child(element, "outline");

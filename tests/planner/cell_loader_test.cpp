@@ -87,16 +87,8 @@ TEST_CASE("A cell file loads with its frames, tools, bodies and home in SI", "[p
   CHECK(cell.home[4] == Approx(60.0 * kPi / 180.0).margin(kExact));
 }
 
-struct BadCell {
-  const char* what;
-  std::string from;
-  std::string to;
-  std::string at;  ///< text on the line the error must name (after the change)
-  const char* message;
-};
-
 TEST_CASE("Every malformed cell element is a located error", "[planner][cell][errors]") {
-  const std::vector<BadCell> cases = {
+  const std::vector<test::BadInput> cases = {
       {"unknown element", "  <frames>", "  <frame-list/>\n  <frames>", "<frame-list/>",
        "unknown element inside <cell>"},
       {"unknown attribute", R"(xyz="1000 0 0"/>)", R"(xyz="1000 0 0" color="red"/>)",
@@ -139,19 +131,7 @@ TEST_CASE("Every malformed cell element is a located error", "[planner][cell][er
       // tinyxml2 reports a mismatched end tag at the element it fails to close.
       {"not XML", "  </frames>", "  </frame>", "<frames>", "not well-formed"},
   };
-  for (const BadCell& c : cases) {
-    CAPTURE(c.what);
-    const std::string text = test::replaced(validCell(), c.from, c.to);
-    const std::string path = test::writeTestFile("bad_cell.xml", text);
-    try {
-      loadCell(path);
-      FAIL("expected an InputError");
-    } catch (const InputError& error) {
-      CHECK(error.file() == path);
-      CHECK(error.line() == test::lineOf(text, c.at));
-      CHECK_THAT(error.message(), Catch::Contains(c.message));
-    }
-  }
+  test::checkBadInputs(cases, validCell, "bad_cell.xml", [](const std::string& path) { loadCell(path); });
 }
 
 TEST_CASE("Cell references that cannot be read name their file", "[planner][cell][errors]") {

@@ -84,16 +84,8 @@ TEST_CASE("A job file loads its cell, seams, patches, transit and outputs in SI"
   CHECK(job.outputs[1].path == std::string(TW_TEST_OUTPUT_DIR) + "/out/a.csv");
 }
 
-struct BadJob {
-  const char* what;
-  std::string from;
-  std::string to;
-  std::string at;  ///< text on the line the error must name (after the change)
-  const char* message;
-};
-
 TEST_CASE("Every malformed job element is a located error", "[planner][job][errors]") {
-  const std::vector<BadJob> cases = {
+  const std::vector<test::BadInput> cases = {
       {"unknown frame", R"(frame="bracket" tool="torch" speed="12")",
        R"(frame="brackett" tool="torch" speed="12")", R"(<seam name="a")", "unknown frame 'brackett'"},
       {"unknown tool", R"(tool="torch" speed="30")", R"(tool="nozzle" speed="30")", R"(<seam name="b")",
@@ -129,19 +121,7 @@ TEST_CASE("Every malformed job element is a located error", "[planner][job][erro
       {"unknown frame name via typo in patch", R"(frame="table-top")", R"(frame="tabletop")",
        "<patch", "unknown frame 'tabletop'"},
   };
-  for (const BadJob& c : cases) {
-    CAPTURE(c.what);
-    const std::string text = test::replaced(validJob("bad"), c.from, c.to);
-    const std::string path = test::writeTestFile("bad_job.xml", text);
-    try {
-      loadJob(path);
-      FAIL("expected an InputError");
-    } catch (const InputError& error) {
-      CHECK(error.file() == path);
-      CHECK(error.line() == test::lineOf(text, c.at));
-      CHECK_THAT(error.message(), Catch::Contains(c.message));
-    }
-  }
+  test::checkBadInputs(cases, [] { return validJob("bad"); }, "bad_job.xml", [](const std::string& path) { loadJob(path); });
 }
 
 TEST_CASE("Point list problems found through a job name the point list", "[planner][job][errors]") {

@@ -9,6 +9,13 @@ constexpr double kPi = 3.14159265358979323846;
 // Sums of a few 0.1 m lengths: rounding stays near 1e-16 m.
 constexpr double kExact = 1e-12;
 
+RasterParameters spray(double width, double overlap) {
+  RasterParameters raster;
+  raster.spray_width = width;
+  raster.overlap = overlap;
+  return raster;
+}
+
 PaintPatch rectangle(double width, double height) {
   PaintPatch patch;
   patch.outline = {{0, 0, 0}, {width, 0, 0}, {width, height, 0}, {0, height, 0}};
@@ -62,9 +69,7 @@ TEST_CASE("A rectangular patch gets evenly spaced zig-zag passes past both edges
 }
 
 TEST_CASE("Pass count follows ceil(H / spacing) + 1", "[planner][paint]") {
-  RasterParameters raster;
-  raster.spray_width = 0.1;
-  raster.overlap = 0.5;  // spacing 50 mm
+  RasterParameters raster = spray(0.1, 0.5);  // spacing 50 mm
   // An exact multiple: 200 mm → 4 spacings → 5 passes, the outer ones on the edges.
   const std::vector<RasterPass> exact = paintRaster(rectangle(0.3, 0.2), raster);
   REQUIRE(exact.size() == 5);
@@ -81,10 +86,7 @@ TEST_CASE("A non-rectangular patch: each pass covers the outline inside its fan 
   // A right triangle with legs 400 mm (x) and 200 mm (y); passes along x.
   PaintPatch triangle;
   triangle.outline = {{0, 0, 0}, {0.4, 0, 0}, {0, 0.2, 0}};
-  RasterParameters raster;
-  raster.spray_width = 0.1;
-  raster.overlap = 0.5;
-  const std::vector<RasterPass> passes = paintRaster(triangle, raster);
+  const std::vector<RasterPass> passes = paintRaster(triangle, spray(0.1, 0.5));
   REQUIRE(passes.size() == 5);
   for (const RasterPass& pass : passes) {
     CAPTURE(pass.offset);
@@ -105,10 +107,7 @@ TEST_CASE("The pass direction may point anywhere in a tilted plane", "[planner][
   patch.outline = {{0, 0, 0}, {0.6, 0, 0}, {0.6, 0, 0.4}, {0, 0, 0.4}};
   patch.normal = -Eigen::Vector3d::UnitY();
   patch.pass_direction = Eigen::Vector3d(0, 0, 1);  // passes run vertically
-  RasterParameters raster;
-  raster.spray_width = 0.2;
-  raster.overlap = 0.5;
-  const std::vector<RasterPass> passes = paintRaster(patch, raster);
+  const std::vector<RasterPass> passes = paintRaster(patch, spray(0.2, 0.5));
   // 600 mm across at 100 mm: 7 passes.
   REQUIRE(passes.size() == 7);
   for (const RasterPass& pass : passes) {
