@@ -4,9 +4,12 @@ namespace tw::planner {
 
 const char* toString(CellBody::Role role) {
   switch (role) {
-    case CellBody::Role::kFixture: return "fixture";
-    case CellBody::Role::kWorkpiece: return "workpiece";
-    case CellBody::Role::kObstacle: return "obstacle";
+    case CellBody::Role::kFixture:
+      return "fixture";
+    case CellBody::Role::kWorkpiece:
+      return "workpiece";
+    case CellBody::Role::kObstacle:
+      return "obstacle";
   }
   return "unknown";
 }

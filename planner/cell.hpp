@@ -20,7 +20,7 @@ struct Cell {
   /// Frame in `frames` that the arm base B coincides with: X_WB = frames.X_W(arm_frame).
   std::string arm_frame;
   FrameTree frames;
-  std::vector<Tool> tools;    ///< in file order, unique names
+  std::vector<Tool> tools;       ///< in file order, unique names
   std::vector<CellBody> bodies;  ///< in file order, unique names
   /// Home joint position [rad] or [m], one value per arm joint, within limits.
   kinematics::JointVector home;

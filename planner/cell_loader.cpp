@@ -17,7 +17,8 @@ using tinyxml2::XMLElement;
 /// Shortest text that reads back as `value`, independent of the locale.
 std::string numberText(double value) {
   std::array<char, 32> buffer{};
-  const std::to_chars_result result = std::to_chars(buffer.data(), buffer.data() + buffer.size(), value);
+  const std::to_chars_result result =
+      std::to_chars(buffer.data(), buffer.data() + buffer.size(), value);
   return std::string(buffer.data(), result.ptr);
 }
 
@@ -42,15 +43,16 @@ class CellFileReader {
     std::vector<Tool> tools = readTools(root);
     std::vector<CellBody> bodies = readBodies(root, frames);
     kinematics::JointVector home = readHome(file_.child(root, "home"), arm);
-    return Cell{file_.text(root, "name"), file_.path(),   std::move(arm),    arm_frame,
-                std::move(frames),       std::move(tools), std::move(bodies), home};
+    return Cell{file_.text(root, "name"), file_.path(),     std::move(arm),    arm_frame,
+                std::move(frames),        std::move(tools), std::move(bodies), home};
   }
 
  private:
   std::string knownFrame(const FrameTree& frames, const XMLElement& element) const {
     const std::string name = file_.text(element, "frame");
     if (!frames.contains(name)) {
-      file_.fail(element, "unknown frame '" + name + "'; expected 'world' or a <frame> of <frames>");
+      file_.fail(element,
+                 "unknown frame '" + name + "'; expected 'world' or a <frame> of <frames>");
     }
     return name;
   }
@@ -63,8 +65,8 @@ class CellFileReader {
            frame = frame->NextSiblingElement("frame")) {
         file_.allowOnly(*frame, {"name", "parent", "xyz", "rpy", "quaternion"});
         definitions.push_back(FrameDefinition{file_.text(*frame, "name"),
-                                              file_.text(*frame, "parent"),
-                                              readPose(file_, *frame), frame->GetLineNum()});
+                                              file_.text(*frame, "parent"), readPose(file_, *frame),
+                                              frame->GetLineNum()});
       }
     }
     return FrameTree(definitions, file_.path());
@@ -120,7 +122,8 @@ class CellFileReader {
       } else {
         continue;
       }
-      file_.allowOnly(*element, {"name", "frame"}, {"mesh", "box", "cylinder", "sphere", "capsule"});
+      file_.allowOnly(*element, {"name", "frame"},
+                      {"mesh", "box", "cylinder", "sphere", "capsule"});
       body.name = file_.text(*element, "name");
       body.frame = knownFrame(frames, *element);
       body.line = element->GetLineNum();
@@ -148,9 +151,10 @@ class CellFileReader {
       if (home[i] < joint.lower || home[i] > joint.upper) {
         const double scale = revolute ? 1.0 / kDegToRad : 1.0 / kMmToM;
         file_.fail(element, "home value " + std::to_string(i + 1) + " (joint '" + joint.name +
-                                "') is outside the joint limits " + numberText(scale * joint.lower) +
-                                " to " + numberText(scale * joint.upper) +
-                                (revolute ? " deg" : " mm") + " of arm '" + arm.name() + "'");
+                                "') is outside the joint limits " +
+                                numberText(scale * joint.lower) + " to " +
+                                numberText(scale * joint.upper) + (revolute ? " deg" : " mm") +
+                                " of arm '" + arm.name() + "'");
       }
     }
     return home;

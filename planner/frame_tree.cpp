@@ -23,17 +23,17 @@ FrameTree::FrameTree(const std::vector<FrameDefinition>& definitions, const std:
                        "frame 'world' is the implicit root and cannot be defined");
     }
     if (!by_name.emplace(definition.name, &definition).second) {
-      throw InputError(source, definition.line, "frame '" + definition.name +
-                                                    "' is defined twice (first on line " +
-                                                    std::to_string(by_name[definition.name]->line) +
-                                                    ")");
+      throw InputError(source, definition.line,
+                       "frame '" + definition.name + "' is defined twice (first on line " +
+                           std::to_string(by_name[definition.name]->line) + ")");
     }
   }
   for (const FrameDefinition& definition : definitions) {
     if (definition.parent != kWorld && by_name.count(definition.parent) == 0) {
       throw InputError(source, definition.line,
                        "frame '" + definition.name + "' has the unknown parent '" +
-                           definition.parent + "'; expected 'world' or a frame defined in the file");
+                           definition.parent +
+                           "'; expected 'world' or a frame defined in the file");
     }
   }
   // Walk each frame up to the root in file order; a walk that comes back to
@@ -88,9 +88,7 @@ Eigen::Isometry3d FrameTree::relative(const std::string& a, const std::string& b
 
 const std::string& FrameTree::parent(const std::string& name) const { return node(name).parent; }
 
-const Eigen::Isometry3d& FrameTree::X_PF(const std::string& name) const {
-  return node(name).X_PF;
-}
+const Eigen::Isometry3d& FrameTree::X_PF(const std::string& name) const { return node(name).X_PF; }
 
 void FrameTree::setPoseInParent(const std::string& name, const Eigen::Isometry3d& X_PF) {
   if (name == kWorld) throw InputError("frame 'world' is the root and cannot be moved");

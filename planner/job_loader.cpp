@@ -101,9 +101,10 @@ class JobFileReader {
   }
 
   SeamSpec readSeam(const XMLElement& element, const Cell& cell) const {
-    file_.allowOnly(element, {"name", "points", "frame", "tool", "speed", "approach", "retract",
-                              "step", "corner-angle"},
-                    {"weld", "paint", "dispense"});
+    file_.allowOnly(
+        element,
+        {"name", "points", "frame", "tool", "speed", "approach", "retract", "step", "corner-angle"},
+        {"weld", "paint", "dispense"});
     SeamSpec seam;
     readCommon(element, cell, seam);
     seam.sampling.step = readLengthOr(file_, element, "step", seam.sampling.step);
@@ -171,7 +172,8 @@ class JobFileReader {
     if (normal.norm() < 1e-9) file_.fail(outline, "normal must not be zero");
     patch.patch.normal = normal.normalized();
     patch.patch.pass_direction = file_.triple(outline, "pass-direction");
-    if (patch.patch.pass_direction.norm() < 1e-9) file_.fail(outline, "pass-direction must not be zero");
+    if (patch.patch.pass_direction.norm() < 1e-9)
+      file_.fail(outline, "pass-direction must not be zero");
     patch.patch.pass_direction.normalize();
     for (const XMLElement* corner = outline.FirstChildElement("corner"); corner != nullptr;
          corner = corner->NextSiblingElement("corner")) {
@@ -191,10 +193,10 @@ class JobFileReader {
     if (has_width == (paint.Attribute("fan-half-angle") != nullptr)) {
       file_.fail(paint, "give exactly one of spray-width (mm) or fan-half-angle (deg)");
     }
-    raster.spray_width =
-        has_width ? readLength(file_, paint, "spray-width")
-                  : fanWidth(raster.stand_off, angle(paint, "fan-half-angle", 1e-9, 80.0,
-                                                      "above 0 and at most 80 degrees"));
+    raster.spray_width = has_width
+                             ? readLength(file_, paint, "spray-width")
+                             : fanWidth(raster.stand_off, angle(paint, "fan-half-angle", 1e-9, 80.0,
+                                                                "above 0 and at most 80 degrees"));
     if (paint.Attribute("overlap") != nullptr) {
       const double percent = file_.number(paint, "overlap");
       if (percent < 0.0 || percent >= 100.0) {
@@ -208,10 +210,9 @@ class JobFileReader {
       }
       raster.lead = readLength(file_, paint, "lead", true);
     } else {
-      const double acceleration =
-          paint.Attribute("turnaround-acceleration") != nullptr
-              ? kMmToM * positive(paint, "turnaround-acceleration")
-              : kDefaultTurnaroundAcceleration;
+      const double acceleration = paint.Attribute("turnaround-acceleration") != nullptr
+                                      ? kMmToM * positive(paint, "turnaround-acceleration")
+                                      : kDefaultTurnaroundAcceleration;
       raster.lead = defaultLead(raster.spray_width, patch.speed, acceleration);
     }
     return patch;
@@ -233,7 +234,8 @@ class JobFileReader {
     }
     if (element.Attribute("seed") != nullptr) {
       const double seed = file_.number(element, "seed");
-      if (seed < 0.0 || seed > 4294967295.0 || seed != static_cast<double>(static_cast<long long>(seed))) {
+      if (seed < 0.0 || seed > 4294967295.0 ||
+          seed != static_cast<double>(static_cast<long long>(seed))) {
         file_.fail(element, "seed must be a whole number from 0 to 4294967295");
       }
       transit.seed = static_cast<unsigned>(seed);

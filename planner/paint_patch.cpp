@@ -29,8 +29,8 @@ std::optional<std::string> paintPatchProblem(const PaintPatch& patch) {
   if (patch.normal.cross(plane).norm() > kSinOneDegree) {
     return "the normal is not perpendicular to the outline's plane (within 1 degree)";
   }
-  const Eigen::Vector3d along = patch.pass_direction - patch.pass_direction.dot(patch.normal) *
-                                                           patch.normal;
+  const Eigen::Vector3d along =
+      patch.pass_direction - patch.pass_direction.dot(patch.normal) * patch.normal;
   if (along.norm() < kSinOneDegree * patch.pass_direction.norm()) {
     return "the pass direction lies along the normal; expected a direction in the plane";
   }

@@ -29,7 +29,9 @@ std::vector<Eigen::Vector2d> clipped(const std::vector<Eigen::Vector2d>& polygon
 
 }  // namespace
 
-double fanWidth(double stand_off, double half_angle) { return 2.0 * stand_off * std::tan(half_angle); }
+double fanWidth(double stand_off, double half_angle) {
+  return 2.0 * stand_off * std::tan(half_angle);
+}
 
 double defaultLead(double spray_width, double speed, double acceleration) {
   return 0.5 * spray_width + speed * speed / (2.0 * acceleration);
@@ -42,8 +44,7 @@ std::vector<RasterPass> paintRaster(const PaintPatch& patch, const RasterParamet
     throw std::invalid_argument("paintRaster: spray width, overlap or lead out of range");
   }
   const Eigen::Vector3d& n = patch.normal;
-  const Eigen::Vector3d u =
-      (patch.pass_direction - patch.pass_direction.dot(n) * n).normalized();
+  const Eigen::Vector3d u = (patch.pass_direction - patch.pass_direction.dot(n) * n).normalized();
   const Eigen::Vector3d v = n.cross(u);
   const Eigen::Vector3d origin = patch.outline.front();
 

@@ -33,10 +33,10 @@ double defaultLead(double spray_width, double speed, double acceleration);
 /// One straight pass of the gun's aim point across the patch, on its plane.
 struct RasterPass {
   double offset = 0.0;  ///< signed distance of the pass line across the passes [m]
-  Eigen::Vector3d start = Eigen::Vector3d::Zero();     ///< lead-in start, off the part
-  Eigen::Vector3d edge_in = Eigen::Vector3d::Zero();   ///< where the fan reaches the part
-  Eigen::Vector3d edge_out = Eigen::Vector3d::Zero();  ///< where it leaves it
-  Eigen::Vector3d end = Eigen::Vector3d::Zero();       ///< lead-out end, off the part
+  Eigen::Vector3d start = Eigen::Vector3d::Zero();       ///< lead-in start, off the part
+  Eigen::Vector3d edge_in = Eigen::Vector3d::Zero();     ///< where the fan reaches the part
+  Eigen::Vector3d edge_out = Eigen::Vector3d::Zero();    ///< where it leaves it
+  Eigen::Vector3d end = Eigen::Vector3d::Zero();         ///< lead-out end, off the part
   Eigen::Vector3d direction = Eigen::Vector3d::UnitX();  ///< unit, alternates (zig-zag)
 };
 

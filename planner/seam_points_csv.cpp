@@ -62,9 +62,9 @@ std::array<int, kColumnCount> readHeader(const std::string& line, const std::str
       if (name == kColumnNames[c]) column = c;
     }
     if (column < 0) {
-      throw InputError(source, line_number, "unknown column '" + name +
-                                                "' in the header; expected names from: " +
-                                                allColumnNames());
+      throw InputError(
+          source, line_number,
+          "unknown column '" + name + "' in the header; expected names from: " + allColumnNames());
     }
     if (index[column] >= 0) {
       throw InputError(source, line_number, "column '" + name + "' appears twice in the header");
@@ -114,8 +114,10 @@ SeamPointList parseSeamPointsCsv(std::istream& input, const std::string& source)
     const std::vector<std::string> fields = splitFields(line);
     if (fields.size() != field_count) {
       throw InputError(source, line_number,
-                       "expected " + std::to_string(field_count) + " comma-separated fields (as in "
-                           "the header), found " + std::to_string(fields.size()));
+                       "expected " + std::to_string(field_count) +
+                           " comma-separated fields (as in "
+                           "the header), found " +
+                           std::to_string(fields.size()));
     }
     std::array<double, kColumnCount> value{};
     for (int c = 0; c < kColumnCount; ++c) {
@@ -123,9 +125,9 @@ SeamPointList parseSeamPointsCsv(std::istream& input, const std::string& source)
       const std::string& text = fields[(*header)[c]];
       const std::optional<double> number = kinematics::parseNumber(text);
       if (!number) {
-        throw InputError(source, line_number, std::string("column '") + kColumnNames[c] +
-                                                  "': \"" + trimmed(text) +
-                                                  "\" is not a finite number");
+        throw InputError(source, line_number,
+                         std::string("column '") + kColumnNames[c] + "': \"" + trimmed(text) +
+                             "\" is not a finite number");
       }
       value[c] = *number;
     }

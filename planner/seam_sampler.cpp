@@ -17,8 +17,9 @@ Eigen::Vector3d blended(const Eigen::Vector3d& a, const Eigen::Vector3d& b, doub
   return ((1.0 - f) * a + f * b).normalized();
 }
 
-void checkNormalTurn(const std::optional<Eigen::Vector3d>& a, const std::optional<Eigen::Vector3d>& b,
-                     const std::string& source, int line, const char* what) {
+void checkNormalTurn(const std::optional<Eigen::Vector3d>& a,
+                     const std::optional<Eigen::Vector3d>& b, const std::string& source, int line,
+                     const char* what) {
   if (a && b && a->dot(*b) < 0.0) {
     throw InputError(source, line,
                      std::string("the ") + what +
@@ -103,7 +104,8 @@ std::vector<SeamSample> sampleSeam(const SeamPointList& list, const SamplingOpti
       }
       // Rounding may leave the last sample one segment short.
       if (j == pieces) segment = span.last - 1;
-      const double f = j == pieces ? 1.0 : std::clamp((s - segment_start) / length[segment], 0.0, 1.0);
+      const double f =
+          j == pieces ? 1.0 : std::clamp((s - segment_start) / length[segment], 0.0, 1.0);
       const SeamPoint& a = p[segment];
       const SeamPoint& b = p[segment + 1];
       SeamSample sample;

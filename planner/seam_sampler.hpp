@@ -22,7 +22,7 @@ struct SamplingOptions {
 
 /// One resampled point of a seam, in the seam frame X.
 struct SeamSample {
-  Eigen::Vector3d p_XP = Eigen::Vector3d::Zero();  ///< on the input polyline [m]
+  Eigen::Vector3d p_XP = Eigen::Vector3d::Zero();      ///< on the input polyline [m]
   Eigen::Vector3d tangent = Eigen::Vector3d::UnitX();  ///< unit travel direction
   Eigen::Vector3d normal = Eigen::Vector3d::UnitZ();   ///< unit, interpolated
   std::optional<Eigen::Vector3d> second_normal;        ///< unit, interpolated

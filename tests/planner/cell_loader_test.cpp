@@ -1,7 +1,8 @@
+#include "planner/cell_loader.hpp"
+
 #include <catch2/catch.hpp>
 
 #include "kinematics/input_error.hpp"
-#include "planner/cell_loader.hpp"
 #include "test_files.hpp"
 
 namespace tw::planner {
@@ -14,7 +15,8 @@ constexpr double kExact = 1e-12;
 std::string validCell() {
   return R"(<?xml version="1.0"?>
 <cell format-version="1" name="test-cell" length-unit="mm" angle-unit="deg">
-  <arm file=")" + test::sourcePath("samples/arms/weld_arm_1400.xml") + R"(" frame="arm-base"/>
+  <arm file=")" +
+         test::sourcePath("samples/arms/weld_arm_1400.xml") + R"(" frame="arm-base"/>
   <home joints="0 -20 10 0 60 0"/>
   <frames>
     <frame name="part" parent="table" xyz="10 20 30" rpy="0 0 90"/>
@@ -78,7 +80,8 @@ TEST_CASE("A cell file loads with its frames, tools, bodies and home in SI", "[p
   CHECK(cell.bodies[1].role == CellBody::Role::kWorkpiece);
   CHECK(cell.bodies[1].frame == "part");
   // Relative mesh paths resolve against the cell file's folder.
-  CHECK(cell.bodies[1].shapes[0].mesh_path == std::string(TW_TEST_OUTPUT_DIR) + "/meshes/bracket.stl");
+  CHECK(cell.bodies[1].shapes[0].mesh_path ==
+        std::string(TW_TEST_OUTPUT_DIR) + "/meshes/bracket.stl");
   CHECK(cell.bodies[1].shapes[0].mesh_scale == 0.001);
   CHECK(cell.bodies[2].shapes.size() == 2);
   CHECK(std::string(toString(cell.bodies[2].role)) == "obstacle");
@@ -95,7 +98,8 @@ TEST_CASE("Every malformed cell element is a located error", "[planner][cell][er
        "color=", "unknown attribute 'color'"},
       {"missing attribute", R"(<frame name="table" parent="world")", R"(<frame name="table")",
        R"(<frame name="table")", "missing attribute 'parent'"},
-      {"non-finite number", R"(xyz="10 20 30")", R"(xyz="10 nan 30")", "nan", "three finite numbers"},
+      {"non-finite number", R"(xyz="10 20 30")", R"(xyz="10 nan 30")", "nan",
+       "three finite numbers"},
       {"both orientations", R"(rpy="0 0 90")", R"(rpy="0 0 90" quaternion="1 0 0 0")",
        "quaternion=\"1", "either rpy or quaternion"},
       {"non-unit quaternion", "0.7071067811865476 0 0 0.7071067811865476", "1 0 0 1", "\"1 0 0 1\"",
@@ -114,24 +118,27 @@ TEST_CASE("Every malformed cell element is a located error", "[planner][cell][er
        "tool name repeated"},
       {"spin range reversed", R"(spin-min="-10" spin-max="10")", R"(spin-min="10" spin-max="-10")",
        "spin-min=", "spin-min must not exceed spin-max"},
-      {"spin range over a turn", R"(spin-min="-10" spin-max="10")", R"(spin-min="-200" spin-max="200")",
-       "spin-min=", "at most 360"},
-      {"tool without tcp", R"(<tcp xyz="0 0 250"/>)", "", R"(<tool name="gun")", "missing element <tcp>"},
+      {"spin range over a turn", R"(spin-min="-10" spin-max="10")",
+       R"(spin-min="-200" spin-max="200")", "spin-min=", "at most 360"},
+      {"tool without tcp", R"(<tcp xyz="0 0 250"/>)", "", R"(<tool name="gun")",
+       "missing element <tcp>"},
       {"bad symmetric", R"(symmetric="false")", R"(symmetric="no")", R"(symmetric="no")",
        "expected one of: false, true"},
       {"home too short", R"(joints="0 -20 10 0 60 0")", R"(joints="0 -20 10 0 60")", "<home",
        "must be 6 numbers"},
-      {"home outside limits", R"(joints="0 -20 10 0 60 0")", R"(joints="0 -20 10 0 160 0")", "<home",
-       "home value 5 (joint 'j5') is outside the joint limits -135 to 135 deg"},
+      {"home outside limits", R"(joints="0 -20 10 0 60 0")", R"(joints="0 -20 10 0 160 0")",
+       "<home", "home value 5 (joint 'j5') is outside the joint limits -135 to 135 deg"},
       {"mesh without unit", R"( unit="mm")", "", "<mesh", "missing attribute 'unit'"},
       {"zero box size", R"(size="800 1000 400")", R"(size="800 0 400")", "size=", "must be > 0"},
       {"negative radius", R"(radius="50")", R"(radius="-50")", R"(radius="-50")", "must be > 0"},
-      {"unsupported version", R"(format-version="1")", R"(format-version="2")", "<cell", "not supported"},
+      {"unsupported version", R"(format-version="1")", R"(format-version="2")", "<cell",
+       "not supported"},
       {"wrong unit", R"(length-unit="mm")", R"(length-unit="m")", "<cell", "length-unit must be"},
       // tinyxml2 reports a mismatched end tag at the element it fails to close.
       {"not XML", "  </frames>", "  </frame>", "<frames>", "not well-formed"},
   };
-  test::checkBadInputs(cases, validCell, "bad_cell.xml", [](const std::string& path) { loadCell(path); });
+  test::checkBadInputs(cases, validCell, "bad_cell.xml",
+                       [](const std::string& path) { loadCell(path); });
 }
 
 TEST_CASE("Cell references that cannot be read name their file", "[planner][cell][errors]") {
@@ -141,8 +148,8 @@ TEST_CASE("Cell references that cannot be read name their file", "[planner][cell
     CHECK_THROWS_WITH(loadCell(path), Catch::Contains("no_arm.xml: cannot open"));
   }
   SECTION("a body with no shape") {
-    const std::string text = test::replaced(
-        validCell(), "    <box size=\"800 1000 400\" xyz=\"0 0 200\"/>\n", "");
+    const std::string text =
+        test::replaced(validCell(), "    <box size=\"800 1000 400\" xyz=\"0 0 200\"/>\n", "");
     const std::string path = test::writeTestFile("empty_body_cell.xml", text);
     try {
       loadCell(path);

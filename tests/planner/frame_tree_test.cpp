@@ -1,10 +1,10 @@
-#include <catch2/catch.hpp>
+#include "planner/frame_tree.hpp"
 
 #include <Eigen/Geometry>
+#include <catch2/catch.hpp>
 #include <random>
 
 #include "kinematics/input_error.hpp"
-#include "planner/frame_tree.hpp"
 
 namespace tw::planner {
 namespace {
@@ -47,8 +47,9 @@ TEST_CASE("Frames compose from parent to child and invert", "[planner][frames]")
   SECTION("relative poses are the inverse of each other") {
     const Eigen::Isometry3d X_FT = tree.relative("fixture", "table");
     CHECK((X_FT.matrix() - X_TF.inverse().matrix()).norm() < kExact);
-    CHECK(((tree.relative("table", "fixture") * X_FT).matrix() - Eigen::Matrix4d::Identity())
-              .norm() < kExact);
+    CHECK(
+        ((tree.relative("table", "fixture") * X_FT).matrix() - Eigen::Matrix4d::Identity()).norm() <
+        kExact);
     CHECK((tree.relative("world", "fixture").matrix() - (X_WT * X_TF).matrix()).norm() < kExact);
   }
   SECTION("names are sorted and include world") {

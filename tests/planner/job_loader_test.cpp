@@ -1,7 +1,8 @@
+#include "planner/job_loader.hpp"
+
 #include <catch2/catch.hpp>
 
 #include "kinematics/input_error.hpp"
-#include "planner/job_loader.hpp"
 #include "test_files.hpp"
 
 namespace tw::planner {
@@ -14,15 +15,19 @@ constexpr double kExact = 1e-12;
 /// A valid job; its point list is written as `<prefix>_seam.csv`, so that
 /// test cases run in parallel by ctest never share a file.
 std::string validJob(const std::string& prefix) {
-  test::writeTestFile(prefix + "_seam.csv",
-                      "x_mm,y_mm,z_mm,nx,ny,nz,n2x,n2y,n2z\n10,8,8,0,0,1,0,1,0\n140,8,8,0,0,1,0,1,0\n");
+  test::writeTestFile(
+      prefix + "_seam.csv",
+      "x_mm,y_mm,z_mm,nx,ny,nz,n2x,n2y,n2z\n10,8,8,0,0,1,0,1,0\n140,8,8,0,0,1,0,1,0\n");
   return R"(<?xml version="1.0"?>
 <job format-version="1" name="test-job" length-unit="mm" angle-unit="deg" time-unit="s">
-  <cell file=")" + test::sourcePath("samples/cells/bracket_weld_cell.xml") + R"("/>
-  <seam name="a" points=")" + prefix + R"(_seam.csv" frame="bracket" tool="torch" speed="12" approach="25" step="3">
+  <cell file=")" +
+         test::sourcePath("samples/cells/bracket_weld_cell.xml") + R"("/>
+  <seam name="a" points=")" +
+         prefix + R"(_seam.csv" frame="bracket" tool="torch" speed="12" approach="25" step="3">
     <weld work-angle="40" travel-angle="12" tilt="drag" contact-tip-distance="16"/>
   </seam>
-  <seam name="b" points=")" + prefix + R"(_seam.csv" frame="bracket" tool="torch" speed="30" corner-angle="30">
+  <seam name="b" points=")" +
+         prefix + R"(_seam.csv" frame="bracket" tool="torch" speed="30" corner-angle="30">
     <dispense stand-off="4"/>
   </seam>
   <patch name="c" frame="table-top" tool="torch" speed="400" step="40">
@@ -42,7 +47,8 @@ std::string validJob(const std::string& prefix) {
 )";
 }
 
-TEST_CASE("A job file loads its cell, seams, patches, transit and outputs in SI", "[planner][job]") {
+TEST_CASE("A job file loads its cell, seams, patches, transit and outputs in SI",
+          "[planner][job]") {
   const std::string path = test::writeTestFile("valid_job.xml", validJob("valid"));
   const Job job = loadJob(path);
   CHECK(job.name == "test-job");
@@ -87,13 +93,15 @@ TEST_CASE("A job file loads its cell, seams, patches, transit and outputs in SI"
 TEST_CASE("Every malformed job element is a located error", "[planner][job][errors]") {
   const std::vector<test::BadInput> cases = {
       {"unknown frame", R"(frame="bracket" tool="torch" speed="12")",
-       R"(frame="brackett" tool="torch" speed="12")", R"(<seam name="a")", "unknown frame 'brackett'"},
-      {"unknown tool", R"(tool="torch" speed="30")", R"(tool="nozzle" speed="30")", R"(<seam name="b")",
-       "unknown tool 'nozzle'"},
+       R"(frame="brackett" tool="torch" speed="12")", R"(<seam name="a")",
+       "unknown frame 'brackett'"},
+      {"unknown tool", R"(tool="torch" speed="30")", R"(tool="nozzle" speed="30")",
+       R"(<seam name="b")", "unknown tool 'nozzle'"},
       {"missing speed", R"( speed="30")", "", R"(<seam name="b")", "missing attribute 'speed'"},
       {"zero speed", R"(speed="400")", R"(speed="0")", "<patch", "speed must be greater than 0"},
       {"two processes", R"(<dispense stand-off="4"/>)", R"(<dispense stand-off="4"/>
-    <paint/>)", "<paint/>", "exactly one process element"},
+    <paint/>)",
+       "<paint/>", "exactly one process element"},
       {"no process", R"(<dispense stand-off="4"/>)", "", R"(<seam name="b")",
        "exactly one process element"},
       {"unknown process", R"(<dispense stand-off="4"/>)", R"(<glue/>)", "<glue", "unknown element"},
@@ -121,21 +129,25 @@ TEST_CASE("Every malformed job element is a located error", "[planner][job][erro
       {"unknown frame name via typo in patch", R"(frame="table-top")", R"(frame="tabletop")",
        "<patch", "unknown frame 'tabletop'"},
   };
-  test::checkBadInputs(cases, [] { return validJob("bad"); }, "bad_job.xml", [](const std::string& path) { loadJob(path); });
+  test::checkBadInputs(
+      cases, [] { return validJob("bad"); }, "bad_job.xml",
+      [](const std::string& path) { loadJob(path); });
 }
 
 TEST_CASE("Point list problems found through a job name the point list", "[planner][job][errors]") {
   SECTION("a missing point list") {
-    const std::string text = test::replaced(validJob("missing"), R"(points="missing_seam.csv" frame="bracket" tool="torch" speed="30")",
-                                            R"(points="missing.csv" frame="bracket" tool="torch" speed="30")");
+    const std::string text = test::replaced(
+        validJob("missing"), R"(points="missing_seam.csv" frame="bracket" tool="torch" speed="30")",
+        R"(points="missing.csv" frame="bracket" tool="torch" speed="30")");
     const std::string path = test::writeTestFile("missing_csv_job.xml", text);
     CHECK_THROWS_WITH(loadJob(path), Catch::Contains("missing.csv: cannot open"));
   }
   SECTION("a malformed row, with its line in the point list") {
-    const std::string csv = test::writeTestFile(
-        "bad_rows.csv", "x_mm,y_mm,z_mm,nx,ny,nz\n0,0,0,0,0,1\n1,0,0,0,0,0\n");
-    const std::string text = test::replaced(validJob("rows"), R"(points="rows_seam.csv" frame="bracket" tool="torch" speed="12")",
-                                            R"(points="bad_rows.csv" frame="bracket" tool="torch" speed="12")");
+    const std::string csv =
+        test::writeTestFile("bad_rows.csv", "x_mm,y_mm,z_mm,nx,ny,nz\n0,0,0,0,0,1\n1,0,0,0,0,0\n");
+    const std::string text = test::replaced(
+        validJob("rows"), R"(points="rows_seam.csv" frame="bracket" tool="torch" speed="12")",
+        R"(points="bad_rows.csv" frame="bracket" tool="torch" speed="12")");
     const std::string path = test::writeTestFile("bad_rows_job.xml", text);
     CHECK_THROWS_WITH(loadJob(path), Catch::StartsWith(csv + ":3: the surface normal"));
   }
@@ -143,7 +155,8 @@ TEST_CASE("Point list problems found through a job name the point list", "[plann
     const std::string path = test::writeTestFile(
         "empty_job.xml",
         R"(<job format-version="1" name="e" length-unit="mm" angle-unit="deg" time-unit="s">
-  <cell file=")" + test::sourcePath("samples/cells/bracket_weld_cell.xml") + R"("/>
+  <cell file=")" +
+            test::sourcePath("samples/cells/bracket_weld_cell.xml") + R"("/>
 </job>
 )");
     CHECK_THROWS_WITH(loadJob(path), Catch::StartsWith(path + ":1: <job>: expected at least one"));

@@ -1,6 +1,6 @@
-#include <catch2/catch.hpp>
-
 #include "planner/paint_raster.hpp"
+
+#include <catch2/catch.hpp>
 
 namespace tw::planner {
 namespace {
@@ -22,7 +22,8 @@ PaintPatch rectangle(double width, double height) {
   return patch;
 }
 
-TEST_CASE("Fan width and pass spacing reproduce the reference vector", "[planner][paint][reference]") {
+TEST_CASE("Fan width and pass spacing reproduce the reference vector",
+          "[planner][paint][reference]") {
   // domain-facts.md §2 [C]: h = 200 mm, φ = 30° → w = 230.9 mm; 50 % overlap
   // → spacing 115.5 mm. Values given to 0.1 mm, checked to half of that.
   const double w = fanWidth(0.200, 30.0 * kPi / 180.0);

@@ -45,8 +45,9 @@ TEST_CASE("The sample bracket seams hold the torch at the job's angles", "[plann
   // n1 = z, n2 = y, t = x) applies to the world poses; 5e-6 per component
   // is half a unit of its last digit.
   const Eigen::Isometry3d X_WT = worldPoses(path, job.cell.frames)[1];
-  CHECK((X_WT.linear().col(2) - Eigen::Vector3d(0.17365, -0.69636, -0.69636)).cwiseAbs().maxCoeff() <
-        5e-6);
+  CHECK(
+      (X_WT.linear().col(2) - Eigen::Vector3d(0.17365, -0.69636, -0.69636)).cwiseAbs().maxCoeff() <
+      5e-6);
   // The corner seam starts at (10, 8, 8) mm in the bracket frame: the world
   // point is table (950, 0, 0) + top (0, 0, 400) + bracket (−150, −60, 0) + it,
   // and the TCP sits 15 mm back along the torch axis.

@@ -1,9 +1,9 @@
-#include <catch2/catch.hpp>
+#include "planner/seam_points_csv.hpp"
 
+#include <catch2/catch.hpp>
 #include <sstream>
 
 #include "kinematics/input_error.hpp"
-#include "planner/seam_points_csv.hpp"
 #include "test_files.hpp"
 
 namespace tw::planner {
@@ -78,11 +78,13 @@ TEST_CASE("Malformed seam point lists are located errors", "[planner][csv][error
       {"not finite", header + good_row + "1,0,nan,0,0,1\n", 3, "not a finite number"},
       {"infinite", header + "inf,0,0,0,0,1\n" + good_row, 2, "not a finite number"},
       {"zero normal", header + good_row + "1,0,0,0,0,0\n", 3, "zero length"},
-      {"zero second normal", "x_mm,y_mm,z_mm,nx,ny,nz,n2x,n2y,n2z\n0,0,0,0,0,1,0,1,0\n1,0,0,0,0,1,0,0,0\n",
-       3, "second normal"},
+      {"zero second normal",
+       "x_mm,y_mm,z_mm,nx,ny,nz,n2x,n2y,n2z\n0,0,0,0,0,1,0,1,0\n1,0,0,0,0,1,0,0,0\n", 3,
+       "second normal"},
       {"zero speed", "x_mm,y_mm,z_mm,nx,ny,nz,speed_mm_s\n0,0,0,0,0,1,0\n", 2, "speed_mm_s"},
       {"one point", header + good_row, 2, "at least 2 points, found 1"},
-      {"duplicate consecutive", header + "# a\n" + good_row + good_row, 4, "repeats the one on line 3"},
+      {"duplicate consecutive", header + "# a\n" + good_row + good_row, 4,
+       "repeats the one on line 3"},
   };
   for (const Case& c : cases) {
     CAPTURE(c.what, c.text);

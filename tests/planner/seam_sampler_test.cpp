@@ -1,7 +1,8 @@
+#include "planner/seam_sampler.hpp"
+
 #include <catch2/catch.hpp>
 
 #include "kinematics/input_error.hpp"
-#include "planner/seam_sampler.hpp"
 #include "seam_test_points.hpp"
 
 namespace tw::planner {
@@ -29,7 +30,8 @@ TEST_CASE("A straight seam is divided evenly, never coarser than the step", "[pl
 }
 
 TEST_CASE("A corner is kept exactly, once arriving and once leaving", "[planner][sampler]") {
-  const std::vector<SeamSample> samples = sampleSeam(test::cornerFillet(), SamplingOptions{0.01, 0.3});
+  const std::vector<SeamSample> samples =
+      sampleSeam(test::cornerFillet(), SamplingOptions{0.01, 0.3});
   // 50 mm in 5 pieces (6 samples) and 40 mm in 4 pieces (5 samples).
   REQUIRE(samples.size() == 11);
   const SeamSample& arriving = samples[5];
@@ -46,8 +48,8 @@ TEST_CASE("A corner is kept exactly, once arriving and once leaving", "[planner]
   for (const SeamSample& sample : samples) corners += sample.corner;
   CHECK(corners == 2);
   SECTION("a larger corner angle treats the turn as smooth") {
-    const std::vector<SeamSample> smooth =
-        sampleSeam(test::cornerFillet(), SamplingOptions{0.01, 100.0 * 3.14159265358979323846 / 180.0});
+    const std::vector<SeamSample> smooth = sampleSeam(
+        test::cornerFillet(), SamplingOptions{0.01, 100.0 * 3.14159265358979323846 / 180.0});
     CHECK(smooth.size() == 10);
     CHECK(smooth[5].tangent.isApprox(Eigen::Vector3d(1, 1, 0).normalized(), 1e-12));
   }
@@ -70,7 +72,8 @@ TEST_CASE("A curved seam gets unit tangents and normals that follow the curve",
     CHECK(sample.p_XP.norm() == Approx(0.1).epsilon(1e-3));
     // The tangent turns with the circle: within 2.5° of the true tangent.
     const Eigen::Vector3d circle_tangent(-sample.p_XP.y(), sample.p_XP.x(), 0.0);
-    CHECK(sample.tangent.dot(circle_tangent.normalized()) > std::cos(2.5 * 3.14159265358979323846 / 180.0));
+    CHECK(sample.tangent.dot(circle_tangent.normalized()) >
+          std::cos(2.5 * 3.14159265358979323846 / 180.0));
     if (i > 0) CHECK((sample.p_XP - samples[i - 1].p_XP).norm() <= SamplingOptions{}.step + kExact);
     CHECK(sample.arc_length > previous_s);
     previous_s = sample.arc_length;
@@ -98,11 +101,13 @@ TEST_CASE("Seams that cannot be sampled are located errors", "[planner][sampler]
   }
   SECTION("a seam that turns back on itself") {
     const SeamPointList list = test::pointList({{0, 0, 0}, {0.01, 0, 0}, {0.0, 0, 0}}, {z, z, z});
-    CHECK_THROWS_WITH(sampleSeam(list, SamplingOptions{}), Catch::StartsWith("test.csv:3: the seam turns back"));
+    CHECK_THROWS_WITH(sampleSeam(list, SamplingOptions{}),
+                      Catch::StartsWith("test.csv:3: the seam turns back"));
   }
   SECTION("a point list built in code with a repeated point") {
     const SeamPointList list = test::pointList({{0, 0, 0}, {0, 0, 0}}, {z, z});
-    CHECK_THROWS_WITH(sampleSeam(list, SamplingOptions{}), Catch::StartsWith("test.csv:3: this point repeats"));
+    CHECK_THROWS_WITH(sampleSeam(list, SamplingOptions{}),
+                      Catch::StartsWith("test.csv:3: this point repeats"));
   }
   SECTION("a non-positive step") {
     const SeamPointList list = test::pointList({{0, 0, 0}, {0.01, 0, 0}}, {z, z});

@@ -44,9 +44,10 @@ inline SeamPointList pipeFillet(double radius, double step_deg) {
 /// An L-shaped inside corner seam: along +x, then a 90° turn to +y, on a
 /// floor (+z) against a wall whose normal faces the open side.
 inline SeamPointList cornerFillet() {
-  return pointList({{0, 0, 0}, {0.05, 0, 0}, {0.05, 0.04, 0}},
-                   {Eigen::Vector3d::UnitZ(), Eigen::Vector3d::UnitZ(), Eigen::Vector3d::UnitZ()},
-                   {Eigen::Vector3d::UnitY(), Eigen::Vector3d(-1, 1, 0), -Eigen::Vector3d::UnitX()});
+  return pointList(
+      {{0, 0, 0}, {0.05, 0, 0}, {0.05, 0.04, 0}},
+      {Eigen::Vector3d::UnitZ(), Eigen::Vector3d::UnitZ(), Eigen::Vector3d::UnitZ()},
+      {Eigen::Vector3d::UnitY(), Eigen::Vector3d(-1, 1, 0), -Eigen::Vector3d::UnitX()});
 }
 
 }  // namespace tw::planner::test

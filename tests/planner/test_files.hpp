@@ -1,7 +1,6 @@
 #pragma once
 
 #include <catch2/catch.hpp>
-
 #include <fstream>
 #include <functional>
 #include <stdexcept>

@@ -1,7 +1,8 @@
+#include "planner/tool_path_builder.hpp"
+
 #include <catch2/catch.hpp>
 
 #include "planner/normal_tool_poses.hpp"
-#include "planner/tool_path_builder.hpp"
 #include "seam_test_points.hpp"
 
 namespace tw::planner {
@@ -97,7 +98,8 @@ TEST_CASE("Paint and dispense tools stand square to the surface at the stand-off
     sample.second_normal = Eigen::Vector3d::UnitY();
     const Eigen::Isometry3d X = normalToolPose(sample, 0.003, "test.csv");
     // domain-facts.md §1 torch frame check, no lean: z0 = (0, −0.7071, −0.7071).
-    CHECK((X.linear().col(2) - Eigen::Vector3d(0, -0.7071068, -0.7071068)).cwiseAbs().maxCoeff() < 5e-8);
+    CHECK((X.linear().col(2) - Eigen::Vector3d(0, -0.7071068, -0.7071068)).cwiseAbs().maxCoeff() <
+          5e-8);
   }
 }
 

@@ -1,11 +1,11 @@
-#include <catch2/catch.hpp>
+#include "planner/weld_tool_poses.hpp"
 
+#include <catch2/catch.hpp>
 #include <random>
 
 #include "kinematics/input_error.hpp"
 #include "planner/process_angles.hpp"
 #include "planner/seam_sampler.hpp"
-#include "planner/weld_tool_poses.hpp"
 #include "seam_test_points.hpp"
 
 namespace tw::planner {
