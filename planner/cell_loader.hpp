@@ -16,6 +16,7 @@ namespace tw::planner {
 /// every problem: unknown element or attribute, missing or non-finite value,
 /// an unknown or cyclic frame, duplicate names, a bad spin range, a home
 /// position of the wrong size or outside the joint limits.
+/// Thread-safe: it shares no state between calls.
 Cell loadCell(const std::string& path);
 
 }  // namespace tw::planner

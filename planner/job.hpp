@@ -18,7 +18,10 @@ struct SeamSpec {
   std::string name;
   std::string frame;  ///< frame of the cell the points are given in
   std::string tool;   ///< tool of the cell
+  /// The points in travel order: the file's order, or its reverse when the
+  /// job says direction="reversed" (then `reversed` is true).
   SeamPointList points;
+  bool reversed = false;
   ProcessParameters process;
   /// TCP speed on the seam [m/s], for points without their own speed.
   double speed = 0.0;

@@ -1,5 +1,6 @@
 #include "planner/job_loader.hpp"
 
+#include <algorithm>
 #include <set>
 
 #include "kinematics/xml_file.hpp"
@@ -101,10 +102,10 @@ class JobFileReader {
   }
 
   SeamSpec readSeam(const XMLElement& element, const Cell& cell) const {
-    file_.allowOnly(
-        element,
-        {"name", "points", "frame", "tool", "speed", "approach", "retract", "step", "corner-angle"},
-        {"weld", "paint", "dispense"});
+    file_.allowOnly(element,
+                    {"name", "points", "frame", "tool", "speed", "approach", "retract", "step",
+                     "corner-angle", "direction"},
+                    {"weld", "paint", "dispense"});
     SeamSpec seam;
     readCommon(element, cell, seam);
     seam.sampling.step = readLengthOr(file_, element, "step", seam.sampling.step);
@@ -123,6 +124,10 @@ class JobFileReader {
     }
     seam.process = readProcess(*process);
     seam.points = loadSeamPointsCsv(resolvePath(file_, file_.text(element, "points")));
+    if (element.Attribute("direction") != nullptr) {
+      seam.reversed = file_.choice(element, "direction", {"as-listed", "reversed"}) == 1;
+    }
+    if (seam.reversed) std::reverse(seam.points.points.begin(), seam.points.points.end());
     return seam;
   }
 

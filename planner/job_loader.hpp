@@ -17,6 +17,7 @@ namespace tw::planner {
 /// attribute, missing or non-finite value, a value out of range, an unknown
 /// frame or tool, a repeated seam name or output file, no work at all, or
 /// a malformed point list or outline.
+/// Thread-safe: it shares no state between calls.
 Job loadJob(const std::string& path);
 
 }  // namespace tw::planner

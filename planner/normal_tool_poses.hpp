@@ -15,6 +15,7 @@ namespace tw::planner {
 ///
 /// Throws tw::InputError located at the sample's line in `source` when the
 /// normal lies along the seam or the two normals are opposite.
+/// A pure function, safe to call from several threads.
 Eigen::Isometry3d normalToolPose(const SeamSample& sample, double stand_off,
                                  const std::string& source);
 

@@ -32,7 +32,7 @@ double defaultLead(double spray_width, double speed, double acceleration);
 
 /// One straight pass of the gun's aim point across the patch, on its plane.
 struct RasterPass {
-  double offset = 0.0;  ///< signed distance of the pass line across the passes [m]
+  double offset = 0.0;  ///< position across the passes (along v) from the first corner [m]
   Eigen::Vector3d start = Eigen::Vector3d::Zero();       ///< lead-in start, off the part
   Eigen::Vector3d edge_in = Eigen::Vector3d::Zero();     ///< where the fan reaches the part
   Eigen::Vector3d edge_out = Eigen::Vector3d::Zero();    ///< where it leaves it
@@ -52,6 +52,7 @@ struct RasterPass {
 ///
 /// Preconditions (checked, std::invalid_argument): paintPatchProblem() is
 /// nullopt, spray_width > 0, 0 ≤ overlap < 1, lead ≥ 0.
+/// A pure function, safe to call from several threads.
 std::vector<RasterPass> paintRaster(const PaintPatch& patch, const RasterParameters& raster);
 
 }  // namespace tw::planner

@@ -14,7 +14,7 @@ struct SeamPoint {
   Eigen::Vector3d normal = Eigen::Vector3d::UnitZ();
   /// Unit normal of the second face of a fillet (inside corner) joint.
   std::optional<Eigen::Vector3d> second_normal;
-  std::optional<double> speed;  ///< TCP speed from here on [m/s], > 0
+  std::optional<double> speed;  ///< TCP speed at this point [m/s], > 0; interpolated between points
   int line = 0;                 ///< line in the point-list file
 };
 

@@ -47,6 +47,7 @@ struct SeamSample {
 /// normal) turning by more than 90° from one point to the next (a sign error
 /// or a list too sparse to interpolate), a direction reversal (a turn of
 /// 180°), a non-positive step or a corner angle outside (0°, 170°].
+/// A pure function, safe to call from several threads.
 std::vector<SeamSample> sampleSeam(const SeamPointList& points, const SamplingOptions& options);
 
 }  // namespace tw::planner

@@ -25,6 +25,7 @@ namespace tw::planner {
 /// Throws tw::InputError located at the sample's line in `source` when the
 /// normal lies along the seam, the two normals are parallel (no fillet), or
 /// the work angle would put the torch behind the second face.
+/// A pure function, safe to call from several threads.
 Eigen::Isometry3d weldToolPose(const SeamSample& sample, const WeldParameters& weld,
                                const std::string& source);
 

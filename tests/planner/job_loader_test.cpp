@@ -27,7 +27,8 @@ std::string validJob(const std::string& prefix) {
     <weld work-angle="40" travel-angle="12" tilt="drag" contact-tip-distance="16"/>
   </seam>
   <seam name="b" points=")" +
-         prefix + R"(_seam.csv" frame="bracket" tool="torch" speed="30" corner-angle="30">
+         prefix + R"(_seam.csv" frame="bracket" tool="torch" speed="30" corner-angle="30"
+        direction="reversed">
     <dispense stand-off="4"/>
   </seam>
   <patch name="c" frame="table-top" tool="torch" speed="400" step="40">
@@ -71,6 +72,11 @@ TEST_CASE("A job file loads its cell, seams, patches, transit and outputs in SI"
   const SeamSpec& b = std::get<SeamSpec>(job.tasks[1]);
   CHECK(kindOf(b.process) == ProcessKind::kDispense);
   CHECK(std::get<DispenseParameters>(b.process).stand_off == Approx(0.004).margin(kExact));
+  // direction="reversed": worked from the file's last point to its first.
+  CHECK(b.reversed);
+  CHECK(b.points.points.front().p_XP.x() == Approx(0.140).margin(kExact));
+  CHECK(b.points.points.front().line == 3);
+  CHECK_FALSE(a.reversed);
   CHECK(b.sampling.corner_angle == Approx(30.0 * kPi / 180.0).margin(kExact));
 
   const PatchSpec& c = std::get<PatchSpec>(job.tasks[2]);
@@ -122,6 +128,8 @@ TEST_CASE("Every malformed job element is a located error", "[planner][job][erro
        "not perpendicular"},
       {"joint speed over 100 %", R"(joint-speed="30")", R"(joint-speed="130")", "<transit",
        "joint-speed must be"},
+      {"bad direction", R"(direction="reversed")", R"(direction="backwards")",
+       R"(<seam name="b")", "expected one of: as-listed, reversed"},
       {"fractional seed", R"(seed="99")", R"(seed="9.5")", "<transit", "whole number"},
       {"repeated output file", R"(file="a.csv")", R"(file="a.twm")", R"(writer="joint-table")",
        "already written"},

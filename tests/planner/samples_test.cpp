@@ -55,6 +55,24 @@ TEST_CASE("The sample bracket seams hold the torch at the job's angles", "[plann
   CHECK((X_WT.translation() + 0.015 * X_WT.linear().col(2) - p_W).norm() < 1e-9);
   CHECK(std::get<WeldParameters>(corner.process).work_angle.value() == Approx(45.0 * kPi / 180.0));
 
+  SECTION("after a known move of the bracket the seam follows it") {
+    // Shift the bracket 20 mm along the table's y and turn it 90° about z
+    // at its origin: (10, 8, 8) mm in the bracket is then at (−8, 10, 8) mm
+    // from its new origin (hand composition, common practice, no source).
+    FrameTree moved = job.cell.frames;
+    Eigen::Isometry3d X_TB = Eigen::Isometry3d::Identity();
+    X_TB.translation() = Eigen::Vector3d(-0.150, -0.040, 0.0);
+    X_TB.linear() = Eigen::AngleAxisd(kPi / 2, Eigen::Vector3d::UnitZ()).toRotationMatrix();
+    moved.setPoseInParent("bracket", X_TB);
+    const Eigen::Isometry3d X_WT_moved = worldPoses(path, moved)[1];
+    const Eigen::Vector3d p_W_moved(0.950 - 0.150 - 0.008, -0.040 + 0.010, 0.400 + 0.008);
+    CHECK((X_WT_moved.translation() + 0.015 * X_WT_moved.linear().col(2) - p_W_moved).norm() <
+          1e-9);
+    // The torch turned with the part: its axis is the old one turned 90° about z.
+    const Eigen::Vector3d z_old = X_WT.linear().col(2);
+    CHECK((X_WT_moved.linear().col(2) - Eigen::Vector3d(-z_old.y(), z_old.x(), z_old.z())).norm() <
+          1e-12);
+  }
   SECTION("the lug seam keeps both corners") {
     const ToolPath lug = pathOf(job.tasks[3], job);
     int corners = 0;
