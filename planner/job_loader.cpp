@@ -177,8 +177,9 @@ class JobFileReader {
     if (normal.norm() < 1e-9) file_.fail(outline, "normal must not be zero");
     patch.patch.normal = normal.normalized();
     patch.patch.pass_direction = file_.triple(outline, "pass-direction");
-    if (patch.patch.pass_direction.norm() < 1e-9)
+    if (patch.patch.pass_direction.norm() < 1e-9) {
       file_.fail(outline, "pass-direction must not be zero");
+    }
     patch.patch.pass_direction.normalize();
     for (const XMLElement* corner = outline.FirstChildElement("corner"); corner != nullptr;
          corner = corner->NextSiblingElement("corner")) {
