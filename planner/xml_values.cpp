@@ -1,6 +1,7 @@
 #include "planner/xml_values.hpp"
 
 #include <cmath>
+#include <fstream>
 #include <sstream>
 
 #include "kinematics/number_text.hpp"
@@ -95,6 +96,11 @@ kinematics::LinkShape readShape(const XmlFile& file, const XMLElement& element) 
     file.allowOnly(element, {"file", "unit", "xyz", "rpy", "quaternion"});
     shape.kind = Kind::kMesh;
     shape.mesh_path = resolvePath(file, file.text(element, "file"));
+    // Only opened here; the collision module reads it, but a wrong name is
+    // reported now, at its line.
+    if (!std::ifstream(shape.mesh_path)) {
+      file.fail(element, "cannot open the mesh file '" + shape.mesh_path + "'");
+    }
     shape.mesh_scale = file.choice(element, "unit", {"mm", "m"}) == 0 ? kMmToM : 1.0;
   } else if (kind == "box") {
     file.allowOnly(element, {"size", "xyz", "rpy", "quaternion"});

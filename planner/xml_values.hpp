@@ -43,7 +43,8 @@ double readLengthOr(const kinematics::XmlFile& file, const tinyxml2::XMLElement&
 /// A shape element: <mesh file="..." unit="mm|m"/>, <box size="x y z"/>,
 /// <cylinder radius length/>, <sphere radius/> or <capsule radius length/>,
 /// each with an optional pose (see readPose) in the frame it is attached to.
-/// Relative mesh paths resolve against the file's folder.
+/// Relative mesh paths resolve against the file's folder; a mesh file that
+/// cannot be opened is an error at the element.
 kinematics::LinkShape readShape(const kinematics::XmlFile& file,
                                 const tinyxml2::XMLElement& element);
 

@@ -13,6 +13,10 @@ constexpr double kPi = 3.14159265358979323846;
 constexpr double kExact = 1e-12;
 
 std::string validCell() {
+  // A one-triangle ASCII STL (format: domain-facts §5), only opened by the loader.
+  test::writeTestFile("cell_test_part.stl",
+                      "solid part\n facet normal 0 0 1\n  outer loop\n   vertex 0 0 0\n"
+                      "   vertex 1 0 0\n   vertex 0 1 0\n  endloop\n endfacet\nendsolid part\n");
   return R"(<?xml version="1.0"?>
 <cell format-version="1" name="test-cell" length-unit="mm" angle-unit="deg">
   <arm file=")" +
@@ -34,7 +38,7 @@ std::string validCell() {
     <box size="800 1000 400" xyz="0 0 200"/>
   </fixture>
   <workpiece name="bracket" frame="part">
-    <mesh file="meshes/bracket.stl" unit="mm"/>
+    <mesh file="cell_test_part.stl" unit="mm"/>
   </workpiece>
   <obstacle name="post" frame="world">
     <capsule radius="50" length="1000" xyz="0 -800 500"/>
@@ -81,7 +85,7 @@ TEST_CASE("A cell file loads with its frames, tools, bodies and home in SI", "[p
   CHECK(cell.bodies[1].frame == "part");
   // Relative mesh paths resolve against the cell file's folder.
   CHECK(cell.bodies[1].shapes[0].mesh_path ==
-        std::string(TW_TEST_OUTPUT_DIR) + "/meshes/bracket.stl");
+        std::string(TW_TEST_OUTPUT_DIR) + "/cell_test_part.stl");
   CHECK(cell.bodies[1].shapes[0].mesh_scale == 0.001);
   CHECK(cell.bodies[2].shapes.size() == 2);
   CHECK(std::string(toString(cell.bodies[2].role)) == "obstacle");
@@ -128,6 +132,8 @@ TEST_CASE("Every malformed cell element is a located error", "[planner][cell][er
        "must be 6 numbers"},
       {"home outside limits", R"(joints="0 -20 10 0 60 0")", R"(joints="0 -20 10 0 160 0")",
        "<home", "home value 5 (joint 'j5') is outside the joint limits -135 to 135 deg"},
+      {"missing mesh file", "cell_test_part.stl", "no_such_part.stl", "<mesh",
+       "cannot open the mesh file"},
       {"mesh without unit", R"( unit="mm")", "", "<mesh", "missing attribute 'unit'"},
       {"zero box size", R"(size="800 1000 400")", R"(size="800 0 400")", "size=", "must be > 0"},
       {"negative radius", R"(radius="50")", R"(radius="-50")", R"(radius="-50")", "must be > 0"},
