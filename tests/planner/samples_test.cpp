@@ -81,5 +81,27 @@ TEST_CASE("The sample bracket seams hold the torch at the job's angles", "[plann
   }
 }
 
+TEST_CASE("The sample panel coat follows the reference spray vector", "[planner][samples]") {
+  const Job job = loadJob(test::sourcePath("samples/jobs/panel_coat.xml"));
+  REQUIRE(job.tasks.size() == 2);
+  const PatchSpec& patch = std::get<PatchSpec>(job.tasks[1]);
+  // domain-facts.md §2 [C]: 200 mm, 30° → 230.9 mm fan; lead = half of it
+  // plus 0.5²/(2·5) m = 25 mm [C + M]; values to 0.1 mm, checked to 0.05 mm.
+  CHECK(patch.raster.spray_width == Approx(0.2309).margin(5e-5));
+  CHECK(patch.raster.lead == Approx(0.11547 + 0.025).margin(5e-5));
+  const ToolPath path = pathOf(job.tasks[1], job);
+  // 400 mm across at 115.5 mm: 5 passes (the rule in paint_raster.hpp).
+  CHECK(path.waypoints.back().pass == 4);
+  // The gun is fixed about its axis: a flat fan is not symmetric.
+  CHECK(path.spin.fixed());
+  const Eigen::Isometry3d X_WT = worldPoses(path, job.cell.frames)[1];
+  // First pass starts left of the panel by the lead, 200 mm above it, gun down:
+  // panel corner at stand (800, 0, 0) + (−300, −200, 500) mm.
+  const double first_offset = 0.2 - 2.0 * patch.raster.spray_width * 0.5;
+  const Eigen::Vector3d expected(0.5 - patch.raster.lead, -0.2 + first_offset, 0.7);
+  CHECK((X_WT.translation() - expected).norm() < 1e-9);
+  CHECK((X_WT.linear().col(2) + Eigen::Vector3d::UnitZ()).norm() < 1e-12);
+}
+
 }  // namespace
 }  // namespace tw::planner
