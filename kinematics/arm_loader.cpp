@@ -5,14 +5,10 @@
 #include "kinematics/input_error.hpp"
 #include "kinematics/urdf_chain.hpp"
 #include "kinematics/xml_file.hpp"
+#include "kinematics/xml_values.hpp"
 
 namespace tw::kinematics {
 namespace {
-
-constexpr double kPi = 3.14159265358979323846;
-constexpr double kMmToM = 0.001;
-constexpr double kDegToRad = kPi / 180.0;
-constexpr int kFormatVersion = 1;
 
 using Element = tinyxml2::XMLElement;
 
@@ -25,13 +21,7 @@ class ArmFileReader {
     const Element& root = file_.root("arm-description");
     file_.allowOnly(root, {"format-version", "name", "length-unit", "angle-unit"},
                     {"ortho-parallel", "joints", "serial-chain", "urdf", "flange", "link-geometry"});
-    const double version = file_.number(root, "format-version");
-    if (version != kFormatVersion) {
-      file_.fail(root, "format-version " + file_.text(root, "format-version") +
-                           " is not supported; this build reads version 1");
-    }
-    if (file_.text(root, "length-unit") != "mm") file_.fail(root, "length-unit must be \"mm\"");
-    if (file_.text(root, "angle-unit") != "deg") file_.fail(root, "angle-unit must be \"deg\"");
+    checkFormatHeader(file_, root, false);
 
     ArmDescription arm;
     arm.name = file_.text(root, "name");
@@ -48,8 +38,8 @@ class ArmFileReader {
     if (urdf != nullptr) readUrdf(root, *urdf, arm);
 
     if (const Element* flange = file_.optionalChild(root, "flange")) {
-      file_.allowOnly(*flange, {"xyz", "rpy"});
-      arm.X_LF = arm.X_LF * pose(*flange);
+      file_.allowOnly(*flange, {"xyz", "rpy", "quaternion"});
+      arm.X_LF = arm.X_LF * readPose(file_, *flange);
     }
     if (const Element* geometry = file_.optionalChild(root, "link-geometry")) {
       readLinkGeometry(*geometry, static_cast<int>(arm.joints.size()), arm);
@@ -58,22 +48,8 @@ class ArmFileReader {
   }
 
  private:
-  Eigen::Isometry3d pose(const Element& element) const {
-    Eigen::Isometry3d X = Eigen::Isometry3d::Identity();
-    X.translation() = kMmToM * file_.optionalTriple(element, "xyz").value_or(Eigen::Vector3d::Zero());
-    X.linear() = rotationFromRollPitchYaw(
-        kDegToRad * file_.optionalTriple(element, "rpy").value_or(Eigen::Vector3d::Zero()));
-    return X;
-  }
-
   double length(const Element& element, const char* attribute) const {
     return kMmToM * file_.number(element, attribute);
-  }
-
-  double positiveLength(const Element& element, const char* attribute) const {
-    const double value = length(element, attribute);
-    if (value <= 0.0) file_.fail(element, std::string(attribute) + " must be greater than 0");
-    return value;
   }
 
   /// Reads limits, velocity and acceleration in file units into `joint`,
@@ -146,14 +122,14 @@ class ArmFileReader {
     }
     for (const Element* entry = element.FirstChildElement("joint"); entry != nullptr;
          entry = entry->NextSiblingElement("joint")) {
-      file_.allowOnly(*entry, {"name", "type", "xyz", "rpy", "axis", "min", "max", "max-velocity",
-                               "max-acceleration"});
+      file_.allowOnly(*entry, {"name", "type", "xyz", "rpy", "quaternion", "axis", "min", "max",
+                               "max-velocity", "max-acceleration"});
       JointSpec joint;
       joint.name = file_.text(*entry, "name");
       joint.type = file_.choice(*entry, "type", {"revolute", "prismatic"}) == 0
                        ? JointType::kRevolute
                        : JointType::kPrismatic;
-      joint.X_PJ = pose(*entry);
+      joint.X_PJ = readPose(file_, *entry);
       joint.axis = file_.triple(*entry, "axis");
       if (joint.axis.norm() < 1e-9) file_.fail(*entry, "axis must not be zero");
       readMotionLimits(*entry, joint, true);
@@ -164,7 +140,7 @@ class ArmFileReader {
 
   void readUrdf(const Element& root, const Element& element, ArmDescription& arm) const {
     file_.allowOnly(element, {"file", "base-link", "tip-link"});
-    const std::string path = resolve(file_.text(element, "file"));
+    const std::string path = resolvePath(file_, file_.text(element, "file"));
     UrdfChain chain =
         loadUrdfChain(path, file_.text(element, "base-link"), file_.text(element, "tip-link"));
     const std::vector<const Element*> entries = jointEntries(root, chain.joints.size());
@@ -198,41 +174,9 @@ class ArmFileReader {
       seen[static_cast<int>(index)] = true;
       for (const Element* shape = link->FirstChildElement(); shape != nullptr;
            shape = shape->NextSiblingElement()) {
-        arm.links[static_cast<int>(index)].shapes.push_back(readShape(*shape));
+        arm.links[static_cast<int>(index)].shapes.push_back(readShape(file_, *shape));
       }
     }
-  }
-
-  LinkShape readShape(const Element& element) const {
-    LinkShape shape;
-    const std::string kind = element.Name();
-    if (kind == "mesh") {
-      file_.allowOnly(element, {"file", "unit", "xyz", "rpy"});
-      shape.kind = LinkShape::Kind::kMesh;
-      shape.mesh_path = resolve(file_.text(element, "file"));
-      shape.mesh_scale = file_.choice(element, "unit", {"mm", "m"}) == 0 ? kMmToM : 1.0;
-    } else if (kind == "box") {
-      file_.allowOnly(element, {"size", "xyz", "rpy"});
-      shape.kind = LinkShape::Kind::kBox;
-      shape.box_size = kMmToM * file_.triple(element, "size");
-      if ((shape.box_size.array() <= 0.0).any()) file_.fail(element, "every size must be > 0");
-    } else if (kind == "sphere") {
-      file_.allowOnly(element, {"radius", "xyz", "rpy"});
-      shape.kind = LinkShape::Kind::kSphere;
-      shape.radius = positiveLength(element, "radius");
-    } else {
-      file_.allowOnly(element, {"radius", "length", "xyz", "rpy"});
-      shape.kind = kind == "cylinder" ? LinkShape::Kind::kCylinder : LinkShape::Kind::kCapsule;
-      shape.radius = positiveLength(element, "radius");
-      shape.length = positiveLength(element, "length");
-    }
-    shape.X_LS = pose(element);
-    return shape;
-  }
-
-  std::string resolve(const std::string& reference) const {
-    return !reference.empty() && reference.front() == '/' ? reference
-                                                          : file_.directory() + "/" + reference;
   }
 
   XmlFile file_;

@@ -6,12 +6,22 @@
 
 #include "kinematics/arm_loader.hpp"
 #include "kinematics/xml_file.hpp"
-#include "planner/xml_values.hpp"
+#include "kinematics/xml_values.hpp"
 
 namespace tw::planner {
 namespace {
 
 using kinematics::XmlFile;
+using kinematics::checkFormatHeader;
+using kinematics::kDegToRad;
+using kinematics::kMmToM;
+using kinematics::kPi;
+using kinematics::readLength;
+using kinematics::readLengthOr;
+using kinematics::readNumbers;
+using kinematics::readPose;
+using kinematics::readShape;
+using kinematics::resolvePath;
 using tinyxml2::XMLElement;
 
 /// Shortest text that reads back as `value`, independent of the locale.

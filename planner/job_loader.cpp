@@ -6,12 +6,21 @@
 #include "kinematics/xml_file.hpp"
 #include "planner/cell_loader.hpp"
 #include "planner/seam_points_csv.hpp"
-#include "planner/xml_values.hpp"
+#include "kinematics/xml_values.hpp"
 
 namespace tw::planner {
 namespace {
 
 using kinematics::XmlFile;
+using kinematics::checkFormatHeader;
+using kinematics::kDegToRad;
+using kinematics::kMmToM;
+using kinematics::readLength;
+using kinematics::readLengthOr;
+using kinematics::readNumbers;
+using kinematics::readPose;
+using kinematics::readShape;
+using kinematics::resolvePath;
 using tinyxml2::XMLElement;
 
 // Turnaround acceleration for the default lead [m/s²]: the worked example of

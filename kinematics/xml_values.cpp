@@ -1,4 +1,4 @@
-#include "planner/xml_values.hpp"
+#include "kinematics/xml_values.hpp"
 
 #include <cmath>
 #include <fstream>
@@ -7,9 +7,8 @@
 #include "kinematics/number_text.hpp"
 #include "kinematics/urdf_chain.hpp"
 
-namespace tw::planner {
+namespace tw::kinematics {
 
-using kinematics::XmlFile;
 using tinyxml2::XMLElement;
 
 void checkFormatHeader(const XmlFile& file, const XMLElement& root, bool with_time) {
@@ -32,7 +31,7 @@ std::vector<double> readNumbers(const XmlFile& file, const XMLElement& element,
   std::vector<double> values;
   std::string word;
   while (words >> word) {
-    const std::optional<double> value = kinematics::parseNumber(word);
+    const std::optional<double> value = parseNumber(word);
     if (!value) {
       file.fail(element, std::string("attribute '") + attribute + "': \"" + word +
                              "\" is not a finite number");
@@ -55,7 +54,7 @@ Eigen::Isometry3d readPose(const XmlFile& file, const XMLElement& element) {
   if (rpy && has_quaternion) {
     file.fail(element, "give the orientation as either rpy or quaternion, not both");
   }
-  if (rpy) X.linear() = kinematics::rotationFromRollPitchYaw(kDegToRad * *rpy);
+  if (rpy) X.linear() = rotationFromRollPitchYaw(kDegToRad * *rpy);
   if (has_quaternion) {
     const std::vector<double> q = readNumbers(file, element, "quaternion", 4);
     const Eigen::Quaterniond quaternion(q[0], q[1], q[2], q[3]);
@@ -88,9 +87,9 @@ std::string resolvePath(const XmlFile& file, const std::string& reference) {
                                                         : file.directory() + "/" + reference;
 }
 
-kinematics::LinkShape readShape(const XmlFile& file, const XMLElement& element) {
-  using Kind = kinematics::LinkShape::Kind;
-  kinematics::LinkShape shape;
+LinkShape readShape(const XmlFile& file, const XMLElement& element) {
+  using Kind = LinkShape::Kind;
+  LinkShape shape;
   const std::string kind = element.Name();
   if (kind == "mesh") {
     file.allowOnly(element, {"file", "unit", "xyz", "rpy", "quaternion"});
@@ -123,4 +122,4 @@ kinematics::LinkShape readShape(const XmlFile& file, const XMLElement& element) 
   return shape;
 }
 
-}  // namespace tw::planner
+}  // namespace tw::kinematics
