@@ -1,0 +1,291 @@
+#include "collision/collision_world.hpp"
+
+#include <fcl/narrowphase/collision.h>
+#include <fcl/narrowphase/distance.h>
+
+#include <cmath>
+#include <limits>
+
+#include "collision/mesh_trimming.hpp"
+#include "collision/world_model.hpp"
+#include "kinematics/input_error.hpp"
+
+namespace tw::collision {
+namespace {
+
+using detail::Piece;
+using detail::PieceKind;
+using detail::WorldModel;
+
+const Piece& pieceOf(const fcl::CollisionObjectd* object) {
+  return *static_cast<const Piece*>(object->getUserData());
+}
+
+/// Does the pair rule of CollisionWorld (see its header) check these two?
+bool isChecked(const WorldModel& model, const Piece& a, const Piece& b) {
+  if (model.isAllowed(a.body, b.body)) return false;
+  const Piece& moving = a.kind == PieceKind::kCell ? b : a;
+  const Piece& other = a.kind == PieceKind::kCell ? a : b;
+  if (other.kind == PieceKind::kCell) {
+    if (moving.kind == PieceKind::kLink) return moving.frame != 0;
+    const bool workpiece = other.role == BodyRole::kWorkpiece;
+    return moving.kind == PieceKind::kTool ? !workpiece : workpiece;
+  }
+  // Between moving pieces the whole tool stands for the tool.
+  return a.kind != PieceKind::kToolBeyondTip && b.kind != PieceKind::kToolBeyondTip;
+}
+
+/// Is piece `inner` (no surface contact with `outer` is known) wholly inside
+/// the closed mesh of `outer`? Only possible when its box lies in outer's.
+bool isInside(const fcl::CollisionObjectd& inner, const Piece& inner_piece,
+              const fcl::CollisionObjectd& outer, const Piece& outer_piece) {
+  if (!outer_piece.closed_mesh) return false;
+  const fcl::AABBd& a = inner.getAABB();
+  const fcl::AABBd& b = outer.getAABB();
+  if ((a.min_.array() < b.min_.array()).any() || (a.max_.array() > b.max_.array()).any()) {
+    return false;
+  }
+  const Eigen::Vector3d p_W = inner.getTransform() * inner_piece.p_S_probe;
+  return pointInsideClosedMesh(*outer_piece.closed_mesh, outer.getTransform().inverse() * p_W);
+}
+
+bool eitherInside(const fcl::CollisionObjectd& a, const fcl::CollisionObjectd& b) {
+  return isInside(a, pieceOf(&a), b, pieceOf(&b)) || isInside(b, pieceOf(&b), a, pieceOf(&a));
+}
+
+/// Narrow phase of a state check: one distance query bounded by the margin,
+/// so the traversal prunes everything at least the margin away.
+StateStatus pairStatus(const fcl::CollisionObjectd& a, const fcl::CollisionObjectd& b,
+                       double margin) {
+  fcl::DistanceRequestd request;
+  fcl::DistanceResultd result;
+  result.min_distance = margin;
+  fcl::distance(&a, &b, request, result);
+  if (result.min_distance <= 0.0 || eitherInside(a, b)) return StateStatus::kInCollision;
+  return result.min_distance < margin ? StateStatus::kWithinMargin : StateStatus::kFree;
+}
+
+struct StateSearch {
+  const WorldModel* model;
+  StateResult result;
+};
+
+bool stateCallback(fcl::CollisionObjectd* a, fcl::CollisionObjectd* b, void* data) {
+  StateSearch& search = *static_cast<StateSearch*>(data);
+  const Piece& piece_a = pieceOf(a);
+  const Piece& piece_b = pieceOf(b);
+  if (!isChecked(*search.model, piece_a, piece_b)) return false;
+  const StateStatus status = pairStatus(*a, *b, search.model->margin);
+  if (status == StateStatus::kFree) return false;
+  search.result = {status, piece_a.body, piece_b.body};
+  return true;
+}
+
+struct ClearanceSearch {
+  const WorldModel* model;
+  Clearance result;
+};
+
+bool clearanceCallback(fcl::CollisionObjectd* a, fcl::CollisionObjectd* b, void* data,
+                       double& bound) {
+  ClearanceSearch& search = *static_cast<ClearanceSearch*>(data);
+  const Piece& piece_a = pieceOf(a);
+  const Piece& piece_b = pieceOf(b);
+  if (!isChecked(*search.model, piece_a, piece_b)) return false;
+  fcl::DistanceRequestd request;
+  request.enable_nearest_points = true;
+  fcl::DistanceResultd result;
+  // Starting from the best distance so far lets FCL prune farther parts.
+  result.min_distance = search.result.distance;
+  fcl::distance(a, b, request, result);
+  Clearance found{result.min_distance, piece_a.body, piece_b.body, result.nearest_points[0],
+                  result.nearest_points[1]};
+  if (result.min_distance <= 0.0) {
+    // Primitives report a signed depth, meshes 0: both mean contact. A
+    // contact point serves as both witnesses.
+    fcl::CollisionRequestd contact_request;
+    contact_request.enable_contact = true;
+    fcl::CollisionResultd contact;
+    fcl::collide(a, b, contact_request, contact);
+    found.distance = 0.0;
+    if (contact.numContacts() > 0) {
+      found.p_WA = found.p_WB = contact.getContact(0).pos;
+    }
+  } else if (eitherInside(*a, *b)) {
+    found.distance = 0.0;
+    found.p_WA = found.p_WB = a->getTransform() * piece_a.p_S_probe;
+  } else if (result.min_distance >= search.result.distance) {
+    return false;
+  }
+  search.result = found;
+  bound = found.distance;
+  return found.distance <= 0.0;
+}
+
+}  // namespace
+
+CollisionWorld::CollisionWorld(const kinematics::ArmModel& arm,
+                               const WorldDescription& description)
+    : model_(detail::buildWorldModel(arm, description)) {
+  for (const FixtureFrame& fixture : description.fixtures) fixture_poses_.push_back(fixture.X_WX);
+  placeCellObjects();
+}
+
+CollisionWorld::CollisionWorld(std::shared_ptr<const WorldModel> model,
+                               std::vector<Eigen::Isometry3d> fixture_poses)
+    : model_(std::move(model)), fixture_poses_(std::move(fixture_poses)) {
+  placeCellObjects();
+}
+
+CollisionWorld::CollisionWorld(CollisionWorld&&) noexcept = default;
+CollisionWorld& CollisionWorld::operator=(CollisionWorld&&) noexcept = default;
+CollisionWorld::~CollisionWorld() = default;
+
+void CollisionWorld::placeCellObjects() {
+  cell_objects_.clear();
+  cell_manager_ = std::make_unique<fcl::DynamicAABBTreeCollisionManagerd>();
+  std::vector<fcl::CollisionObjectd*> objects;
+  for (const Piece& piece : model_->cell) {
+    const Eigen::Isometry3d X_WP =
+        piece.frame < 0 ? Eigen::Isometry3d::Identity() : fixture_poses_[piece.frame];
+    auto object = std::make_unique<MarginObject>(piece.geometry, 0.5 * model_->margin);
+    object->setTransform(X_WP * piece.X_PS);
+    object->updateBounds();
+    // FCL hands user data back as void*; the piece is never written through it.
+    object->setUserData(const_cast<Piece*>(&piece));
+    objects.push_back(object.get());
+    cell_objects_.push_back(std::move(object));
+  }
+  cell_manager_->registerObjects(objects);
+  cell_manager_->setup();
+}
+
+CollisionWorld CollisionWorld::withFixturePose(const std::string& fixture,
+                                               const Eigen::Isometry3d& X_WX) const {
+  const std::vector<std::string>& names = model_->fixture_names;
+  const auto found = std::find(names.begin(), names.end(), fixture);
+  if (found == names.end()) {
+    throw InputError("collision world: no fixture frame named \"" + fixture + "\"");
+  }
+  std::vector<Eigen::Isometry3d> poses = fixture_poses_;
+  poses[found - names.begin()] = X_WX;
+  return CollisionWorld(model_, std::move(poses));
+}
+
+const kinematics::ArmModel& CollisionWorld::arm() const { return model_->arm; }
+double CollisionWorld::clearanceMargin() const { return model_->margin; }
+int CollisionWorld::bodyCount() const { return static_cast<int>(model_->body_names.size()); }
+
+const std::string& CollisionWorld::bodyName(int index) const {
+  static const std::string kNone;
+  return index < 0 ? kNone : model_->body_names.at(index);
+}
+
+const std::vector<std::string>& CollisionWorld::notes() const { return model_->notes; }
+
+void CollisionWorld::checkWorkspace(const CollisionWorkspace& workspace) const {
+  if (workspace.model_ != model_) {
+    throw InputError("collision world: the workspace was made for another collision world");
+  }
+}
+
+void CollisionWorld::poseArm(const kinematics::JointVector& q,
+                             CollisionWorkspace& workspace) const {
+  checkWorkspace(workspace);
+  if (q.size() != model_->arm.jointCount()) {
+    throw InputError("collision world: joint vector has " + std::to_string(q.size()) +
+                     " values, the arm has " + std::to_string(model_->arm.jointCount()) +
+                     " joints");
+  }
+  kinematics::computeLinkPoses(model_->arm, q, workspace.poses_);
+  const std::vector<Piece>& moving = model_->moving;
+  for (std::size_t i = 0; i < moving.size(); ++i) {
+    const Eigen::Isometry3d X_WS = model_->X_WB * workspace.poses_.X_BL[moving[i].frame] *
+                                   moving[i].X_PS;
+    workspace.objects_[i]->setTransform(X_WS);
+    workspace.objects_[i]->updateBounds();
+  }
+  workspace.manager_->update();
+}
+
+StateResult CollisionWorld::checkState(const kinematics::JointVector& q,
+                                       CollisionWorkspace& workspace) const {
+  poseArm(q, workspace);
+  StateSearch search{model_.get(), {}};
+  // FCL's manager-against-manager query takes the other manager by non-const
+  // pointer but only reads it (the tree walk is a const method).
+  workspace.manager_->collide(cell_manager_.get(), &search, stateCallback);
+  if (search.result.valid()) workspace.manager_->collide(&search, stateCallback);
+  return search.result;
+}
+
+Clearance CollisionWorld::clearance(const kinematics::JointVector& q,
+                                    CollisionWorkspace& workspace) const {
+  poseArm(q, workspace);
+  ClearanceSearch search{model_.get(), {}};
+  search.result.distance = std::numeric_limits<double>::infinity();
+  workspace.manager_->distance(cell_manager_.get(), &search, clearanceCallback);
+  if (search.result.distance > 0.0) workspace.manager_->distance(&search, clearanceCallback);
+  return search.result;
+}
+
+double CollisionWorld::motionBound(const kinematics::JointVector& q_start,
+                                   const kinematics::JointVector& q_end) const {
+  double bound = 0.0;
+  for (const Piece& piece : model_->moving) {
+    double reach = 0.0;
+    for (std::size_t j = 0; j < piece.lever.size(); ++j) {
+      reach += piece.lever[j] * std::abs(q_end[j] - q_start[j]);
+    }
+    bound = std::max(bound, reach);
+  }
+  return bound;
+}
+
+SegmentResult CollisionWorld::checkSegment(const kinematics::JointVector& q_start,
+                                           const kinematics::JointVector& q_end,
+                                           CollisionWorkspace& workspace) const {
+  SegmentResult segment;
+  const auto visit = [&](int index, int steps) {
+    const double fraction = static_cast<double>(index) / steps;
+    const kinematics::JointVector q = q_start + fraction * (q_end - q_start);
+    ++segment.states_checked;
+    segment.state = checkState(q, workspace);
+    if (segment.state.valid()) return false;
+    segment.fraction = fraction;
+    return true;
+  };
+  if (q_start.size() != q_end.size()) {
+    throw InputError("collision world: segment ends have different joint counts");
+  }
+  // Neighbouring states closer than the margin in the motion bound, so no
+  // body point passes more than the margin between two valid states.
+  const double bound = motionBound(q_start, q_end);
+  const int steps = static_cast<int>(std::floor(bound / model_->margin)) + 1;
+  if (visit(0, steps) || visit(steps, steps)) return segment;
+  // Coarse to fine: every interior index once, halving the stride each pass,
+  // so a blocked segment is usually found after few checks.
+  int stride = 1;
+  while (stride * 2 < steps) stride *= 2;
+  for (; stride >= 1; stride /= 2) {
+    for (int index = stride; index < steps; index += 2 * stride) {
+      if (visit(index, steps)) return segment;
+    }
+  }
+  return segment;
+}
+
+CollisionWorkspace::CollisionWorkspace(const CollisionWorld& world) : model_(world.model_) {
+  manager_ = std::make_unique<fcl::DynamicAABBTreeCollisionManagerd>();
+  std::vector<fcl::CollisionObjectd*> objects;
+  for (const Piece& piece : model_->moving) {
+    auto object = std::make_unique<MarginObject>(piece.geometry, 0.5 * model_->margin);
+    object->setUserData(const_cast<Piece*>(&piece));
+    objects.push_back(object.get());
+    objects_.push_back(std::move(object));
+  }
+  manager_->registerObjects(objects);
+  manager_->setup();
+}
+
+}  // namespace tw::collision
