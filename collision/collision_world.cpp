@@ -6,7 +6,7 @@
 #include <cmath>
 #include <limits>
 
-#include "collision/mesh_trimming.hpp"
+#include "collision/proximity.hpp"
 #include "collision/world_model.hpp"
 #include "kinematics/input_error.hpp"
 
@@ -39,34 +39,39 @@ bool isChecked(const WorldModel& model, const Piece& a, const Piece& b) {
 /// the closed mesh of `outer`? Only possible when its box lies in outer's.
 bool isInside(const fcl::CollisionObjectd& inner, const Piece& inner_piece,
               const fcl::CollisionObjectd& outer, const Piece& outer_piece) {
-  if (!outer_piece.closed_mesh) return false;
+  if (!outer_piece.closed) return false;
   const fcl::AABBd& a = inner.getAABB();
   const fcl::AABBd& b = outer.getAABB();
   if ((a.min_.array() < b.min_.array()).any() || (a.max_.array() > b.max_.array()).any()) {
     return false;
   }
   const Eigen::Vector3d p_W = inner.getTransform() * inner_piece.p_S_probe;
-  return pointInsideClosedMesh(*outer_piece.closed_mesh, outer.getTransform().inverse() * p_W);
+  return insideClosedMesh(outer, outer.getTransform().inverse() * p_W);
 }
 
 bool eitherInside(const fcl::CollisionObjectd& a, const fcl::CollisionObjectd& b) {
   return isInside(a, pieceOf(&a), b, pieceOf(&b)) || isInside(b, pieceOf(&b), a, pieceOf(&a));
 }
 
-/// Narrow phase of a state check: one distance query bounded by the margin,
-/// so the traversal prunes everything at least the margin away.
+/// Narrow phase of a state check: nearer than the margin or not, and, when
+/// asked, whether the offending pair is in contact.
 StateStatus pairStatus(const fcl::CollisionObjectd& a, const fcl::CollisionObjectd& b,
-                       double margin) {
-  fcl::DistanceRequestd request;
-  fcl::DistanceResultd result;
-  result.min_distance = margin;
-  fcl::distance(&a, &b, request, result);
-  if (result.min_distance <= 0.0 || eitherInside(a, b)) return StateStatus::kInCollision;
-  return result.min_distance < margin ? StateStatus::kWithinMargin : StateStatus::kFree;
+                       double margin, bool tell_contact) {
+  const std::optional<double> near = nearerThan(a, b, margin);
+  if (!near) return eitherInside(a, b) ? StateStatus::kInCollision : StateStatus::kFree;
+  if (*near <= 0.0) return StateStatus::kInCollision;
+  if (!tell_contact) return StateStatus::kWithinMargin;
+  fcl::CollisionRequestd request;
+  fcl::CollisionResultd result;
+  if (fcl::collide(&a, &b, request, result) > 0 || eitherInside(a, b)) {
+    return StateStatus::kInCollision;
+  }
+  return StateStatus::kWithinMargin;
 }
 
 struct StateSearch {
   const WorldModel* model;
+  bool tell_contact;
   StateResult result;
 };
 
@@ -75,10 +80,21 @@ bool stateCallback(fcl::CollisionObjectd* a, fcl::CollisionObjectd* b, void* dat
   const Piece& piece_a = pieceOf(a);
   const Piece& piece_b = pieceOf(b);
   if (!isChecked(*search.model, piece_a, piece_b)) return false;
-  const StateStatus status = pairStatus(*a, *b, search.model->margin);
+  const StateStatus status = pairStatus(*a, *b, search.model->margin, search.tell_contact);
   if (status == StateStatus::kFree) return false;
   search.result = {status, piece_a.body, piece_b.body};
   return true;
+}
+
+struct PairCount {
+  const WorldModel* model;
+  int pairs = 0;
+};
+
+bool countCallback(fcl::CollisionObjectd* a, fcl::CollisionObjectd* b, void* data) {
+  PairCount& count = *static_cast<PairCount*>(data);
+  if (isChecked(*count.model, pieceOf(a), pieceOf(b))) ++count.pairs;
+  return false;
 }
 
 struct ClearanceSearch {
@@ -209,14 +225,24 @@ void CollisionWorld::poseArm(const kinematics::JointVector& q,
 }
 
 StateResult CollisionWorld::checkState(const kinematics::JointVector& q,
-                                       CollisionWorkspace& workspace) const {
+                                       CollisionWorkspace& workspace,
+                                       const StateQuery& query) const {
   poseArm(q, workspace);
-  StateSearch search{model_.get(), {}};
+  StateSearch search{model_.get(), query.tell_contact, {}};
   // FCL's manager-against-manager query takes the other manager by non-const
   // pointer but only reads it (the tree walk is a const method).
   workspace.manager_->collide(cell_manager_.get(), &search, stateCallback);
   if (search.result.valid()) workspace.manager_->collide(&search, stateCallback);
   return search.result;
+}
+
+int CollisionWorld::countCandidatePairs(const kinematics::JointVector& q,
+                                        CollisionWorkspace& workspace) const {
+  poseArm(q, workspace);
+  PairCount count{model_.get()};
+  workspace.manager_->collide(cell_manager_.get(), &count, countCallback);
+  workspace.manager_->collide(&count, countCallback);
+  return count.pairs;
 }
 
 Clearance CollisionWorld::clearance(const kinematics::JointVector& q,

@@ -73,7 +73,8 @@ class CollisionWorld {
   /// Is the joint vector q (one value per arm joint, not checked against
   /// limits) free of collision with the clearance margin? Stops at the first
   /// offending pair. No allocation.
-  StateResult checkState(const kinematics::JointVector& q, CollisionWorkspace& workspace) const;
+  StateResult checkState(const kinematics::JointVector& q, CollisionWorkspace& workspace,
+                         const StateQuery& query = {}) const;
 
   /// The closest checked pair at q with its distance and witness points.
   /// Costs several times a state check: meant for reporting.
@@ -89,6 +90,11 @@ class CollisionWorld {
   SegmentResult checkSegment(const kinematics::JointVector& q_start,
                              const kinematics::JointVector& q_end,
                              CollisionWorkspace& workspace) const;
+
+  /// Diagnostics for profiling: poses the arm and runs only the broad phase
+  /// of checkState, returning how many checked pairs reach the narrow phase
+  /// (boxes grown by the margin overlap).
+  int countCandidatePairs(const kinematics::JointVector& q, CollisionWorkspace& workspace) const;
 
   /// An upper bound [m] on how far any point of the arm and tool moves along
   /// the straight segment from q_start to q_end.

@@ -60,27 +60,4 @@ TriangleMesh meshOutsideBall(const TriangleMesh& mesh, const Eigen::Vector3d& ce
   return out;
 }
 
-bool pointInsideClosedMesh(const TriangleMesh& mesh, const Eigen::Vector3d& point) {
-  // An irregular direction makes a hit exactly on an edge or vertex unlikely.
-  const Eigen::Vector3d direction = Eigen::Vector3d(0.5773, 0.6129, 0.5398).normalized();
-  int crossings = 0;
-  for (const std::array<int, 3>& triangle : mesh.triangles) {
-    // Möller–Trumbore ray–triangle intersection.
-    const Eigen::Vector3d& v0 = mesh.vertices[triangle[0]];
-    const Eigen::Vector3d e1 = mesh.vertices[triangle[1]] - v0;
-    const Eigen::Vector3d e2 = mesh.vertices[triangle[2]] - v0;
-    const Eigen::Vector3d h = direction.cross(e2);
-    const double det = e1.dot(h);
-    if (std::abs(det) < 1e-300) continue;
-    const Eigen::Vector3d s = point - v0;
-    const double u = s.dot(h) / det;
-    if (u < 0.0 || u > 1.0) continue;
-    const Eigen::Vector3d q = s.cross(e1);
-    const double v = direction.dot(q) / det;
-    if (v < 0.0 || u + v > 1.0) continue;
-    if (e2.dot(q) / det > 0.0) ++crossings;
-  }
-  return crossings % 2 == 1;
-}
-
 }  // namespace tw::collision

@@ -18,9 +18,4 @@ namespace tw::collision {
 TriangleMesh meshOutsideBall(const TriangleMesh& mesh, const Eigen::Vector3d& center,
                              double radius);
 
-/// True when `point` lies inside the closed surface `mesh` (same frame), by
-/// the parity of crossings of a fixed ray. Precondition: mesh.closed.
-/// Linear in the triangle count; meant for the rare containment check.
-bool pointInsideClosedMesh(const TriangleMesh& mesh, const Eigen::Vector3d& point);
-
 }  // namespace tw::collision

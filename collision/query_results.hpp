@@ -6,12 +6,25 @@ namespace tw::collision {
 
 /// Outcome of a state check, worst first.
 enum class StateStatus {
-  kFree,          ///< every checked pair at least the clearance margin apart
-  kWithinMargin,  ///< no contact, but some pair nearer than the margin
-  kInCollision,   ///< some pair touches, overlaps, or one body is inside another
+  /// Every checked pair at least the clearance margin apart.
+  kFree,
+  /// Some pair nearer than the margin, and no contact found between them:
+  /// none at all with StateQuery::tell_contact, else none among the parts
+  /// looked at before the check stopped.
+  kWithinMargin,
+  /// Some pair touches, overlaps, or one body is inside another.
+  kInCollision,
 };
 
 const char* toString(StateStatus status);
+
+/// Options of CollisionWorld::checkState, set by field name.
+struct StateQuery {
+  /// Settle whether the offending pair is in contact or only nearer than the
+  /// margin: one more collision query on that pair (several µs for meshes in
+  /// deep overlap, most of a check's cost). Validity does not depend on it.
+  bool tell_contact = false;
+};
 
 /// Result of CollisionWorld::checkState. The pair is the first offending
 /// pair found (body indices into CollisionWorld::bodyName), -1 when free.

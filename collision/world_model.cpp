@@ -35,7 +35,7 @@ class PieceFactory {
     if (shape.kind == LinkShape::Kind::kMesh) {
       const LoadedMesh& loaded = load(shape.mesh_path, shape.mesh_scale);
       piece.geometry = loaded.geometry;
-      if (loaded.mesh->closed) piece.closed_mesh = loaded.mesh;
+      piece.closed = loaded.mesh->closed;
       piece.p_S_probe = loaded.mesh->vertices.front();
     } else {
       piece.geometry = makePrimitiveGeometry(shape);

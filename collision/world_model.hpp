@@ -29,8 +29,8 @@ struct Piece {
   int frame = -1;
   BodyRole role = BodyRole::kObstacle;
   std::shared_ptr<fcl::CollisionGeometryd> geometry;
-  /// Set when the geometry is a closed mesh, so containment can be tested.
-  std::shared_ptr<const TriangleMesh> closed_mesh;
+  /// The geometry is a closed mesh, so a body inside it must be tested for.
+  bool closed = false;
   /// Pose of the shape in its parent frame (link, flange, fixture or world).
   Eigen::Isometry3d X_PS = Eigen::Isometry3d::Identity();
   /// A point of the piece in its shape frame, for containment tests.

@@ -70,6 +70,26 @@ TEST_CASE("A mesh obstacle gives closed-form clearance and catches a body inside
   // Wholly inside the surface: no triangle touches, yet it is a collision.
   CHECK(world.checkState(joints({1.0}), workspace).status == StateStatus::kInCollision);
   CHECK(world.clearance(joints({1.0}), workspace).distance == 0.0);
+
+  SECTION("mesh against mesh: near miss and contact told apart on request") {
+    // The same 400 mm block as the carriage: it spans x ∈ [q − 0.2, q + 0.2].
+    const CollisionWorld blocks(
+        test::sliderArm({test::meshShape(kOut + "/block.stl", Eigen::Isometry3d::Identity())}),
+        description);
+    CollisionWorkspace blocks_workspace(blocks);
+    const StateQuery tell{/*tell_contact=*/true};
+    // 5 mm gap: nearer than the 10 mm margin, no contact.
+    CHECK(blocks.checkState(joints({0.595}), blocks_workspace, tell).status ==
+          StateStatus::kWithinMargin);
+    CHECK(blocks.checkState(joints({0.595}), blocks_workspace).status ==
+          StateStatus::kWithinMargin);
+    // 100 mm overlap: invalid either way, a contact when asked.
+    CHECK_FALSE(blocks.checkState(joints({0.7}), blocks_workspace).valid());
+    CHECK(blocks.checkState(joints({0.7}), blocks_workspace, tell).status ==
+          StateStatus::kInCollision);
+    CHECK(blocks.clearance(joints({0.595}), blocks_workspace).distance ==
+          Approx(0.005).margin(1e-9));
+  }
 }
 
 /// The slider carries a box (the carriage) and a torch: a cylinder r = 10 mm
