@@ -33,6 +33,13 @@ class CollisionWorkspace {
   kinematics::LinkPoses poses_;
   std::vector<std::unique_ptr<MarginObject>> objects_;
   std::unique_ptr<fcl::DynamicAABBTreeCollisionManagerd> manager_;
+  /// Clearance scratch: checked pairs with a lower bound of their distance.
+  struct PairBound {
+    double bound;
+    const fcl::CollisionObjectd* a;
+    const fcl::CollisionObjectd* b;
+  };
+  std::vector<PairBound> pairs_;
 };
 
 }  // namespace tw::collision

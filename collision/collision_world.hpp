@@ -76,9 +76,11 @@ class CollisionWorld {
   StateResult checkState(const kinematics::JointVector& q, CollisionWorkspace& workspace,
                          const StateQuery& query = {}) const;
 
-  /// The closest checked pair at q with its distance and witness points.
-  /// Costs several times a state check: meant for reporting.
-  Clearance clearance(const kinematics::JointVector& q, CollisionWorkspace& workspace) const;
+  /// The closest checked pair at q with its distance and witness points,
+  /// within ClearanceQuery::tolerance of the true minimum (never below it).
+  /// Costs many state checks: meant for reporting, not for validity.
+  Clearance clearance(const kinematics::JointVector& q, CollisionWorkspace& workspace,
+                      const ClearanceQuery& query = {}) const;
 
   /// Is the straight joint-space segment from q_start to q_end valid? States
   /// along it are checked (with the margin) so densely that between two

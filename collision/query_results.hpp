@@ -36,6 +36,14 @@ struct StateResult {
   bool valid() const { return status == StateStatus::kFree; }
 };
 
+/// Options of CollisionWorld::clearance, set by field name.
+struct ClearanceQuery {
+  /// How far [m] the reported distance may lie above the true minimum
+  /// between meshes (primitives are exact). 0 asks for the exact minimum,
+  /// which between finely meshed near-parallel surfaces costs milliseconds.
+  double tolerance = 1e-4;
+};
+
 /// Result of CollisionWorld::clearance: the closest checked pair. Distance
 /// [m] is 0 when bodies touch, overlap or contain one another (FCL gives no
 /// depth for meshes). Witness points in the world frame, one on each body

@@ -64,6 +64,17 @@ void appendCap(double radius, double z0, bool up, int rings, std::vector<Eigen::
   }
 }
 
+/// Profile rings of a straight side of `length` centred at z = 0, both ends
+/// included, spaced at most four times the arc between segments: long thin
+/// slivers make loose bounding volumes and slow distance queries.
+void appendSide(double radius, double length, int segments, std::vector<Eigen::Vector2d>& out) {
+  const double arc = 2.0 * kPi * radius / segments;
+  const int steps = std::max(1, static_cast<int>(std::ceil(length / (4.0 * arc))));
+  for (int i = 0; i <= steps; ++i) {
+    out.emplace_back(radius, -0.5 * length + length * i / steps);
+  }
+}
+
 }  // namespace
 
 TriangleMesh tessellateShape(const kinematics::LinkShape& shape, int segments) {
@@ -76,7 +87,7 @@ TriangleMesh tessellateShape(const kinematics::LinkShape& shape, int segments) {
     case Kind::kBox:
       return boxMesh(shape.box_size);
     case Kind::kCylinder:
-      profile = {{shape.radius, -0.5 * shape.length}, {shape.radius, 0.5 * shape.length}};
+      appendSide(shape.radius, shape.length, segments, profile);
       return revolvedMesh(profile, segments, profile.front().y(), profile.back().y());
     case Kind::kSphere:
       appendCap(shape.radius, 0.0, false, rings, profile);
@@ -86,8 +97,7 @@ TriangleMesh tessellateShape(const kinematics::LinkShape& shape, int segments) {
     case Kind::kCapsule: {
       const double half = 0.5 * shape.length;
       appendCap(shape.radius, -half, false, rings, profile);
-      profile.emplace_back(shape.radius, -half);
-      profile.emplace_back(shape.radius, half);
+      appendSide(shape.radius, shape.length, segments, profile);
       appendCap(shape.radius, half, true, rings, profile);
       return revolvedMesh(profile, segments, -half - shape.radius, half + shape.radius);
     }

@@ -109,13 +109,13 @@ struct BenchCell {
     shoulder.box_size = Eigen::Vector3d(0.36, 0.33, 0.26);
     shoulder.X_LS = placed(0.07, 0, 0.30);
     const std::vector<std::pair<LinkShape, int>> shapes = {
-        {primitive(LinkShape::Kind::kCylinder, 0.2, 0.3, placed(0, 0, 0.15)), 52},
+        {primitive(LinkShape::Kind::kCylinder, 0.2, 0.3, placed(0, 0, 0.15)), 44},
         {shoulder, 0},
-        {primitive(LinkShape::Kind::kCapsule, 0.08, 0.61, placed(0, 0, 0.305)), 52},
-        {primitive(LinkShape::Kind::kCapsule, 0.09, 0.2, placed(0.06, 0, 0, {1, 0, 0})), 52},
-        {primitive(LinkShape::Kind::kCapsule, 0.07, 0.32, placed(0, 0, 0.34)), 52},
-        {primitive(LinkShape::Kind::kSphere, 0.07, 0.0, placed(0, 0, 0)), 52},
-        {primitive(LinkShape::Kind::kCylinder, 0.045, 0.04, placed(0, 0, 0.075)), 52},
+        {primitive(LinkShape::Kind::kCapsule, 0.08, 0.61, placed(0, 0, 0.305)), 44},
+        {primitive(LinkShape::Kind::kCapsule, 0.09, 0.2, placed(0.06, 0, 0, {1, 0, 0})), 44},
+        {primitive(LinkShape::Kind::kCapsule, 0.07, 0.32, placed(0, 0, 0.34)), 44},
+        {primitive(LinkShape::Kind::kSphere, 0.07, 0.0, placed(0, 0, 0)), 44},
+        {primitive(LinkShape::Kind::kCylinder, 0.045, 0.04, placed(0, 0, 0.075)), 44},
     };
     for (std::size_t link = 0; link < description.links.size(); ++link) {
       description.links[link].shapes = {meshed(shapes[link].first, std::max(3, shapes[link].second),
@@ -133,7 +133,7 @@ struct BenchCell {
     body.radius = 0.015;
     body.length = 0.3;
     body.X_LS = placed(0, 0, 0.15);
-    torch.shapes = {meshed(body, 200, "torch", arm_triangles)};
+    torch.shapes = {meshed(body, 32, "torch", arm_triangles)};
     torch.X_FT = placed(0, 0, 0.315);
     description.tool = torch;
 
@@ -143,15 +143,15 @@ struct BenchCell {
       description.bodies.push_back(
           {name, role, fixture, {meshed(shape, segments, name, cell_triangles)}});
     };
-    add("rail", BodyRole::kObstacle, "", capsuleAt(0.15, 1.2, placed(1.0, 0, 0.3, {0, 1, 0})), 100);
-    add("column", BodyRole::kObstacle, "", capsuleAt(0.12, 1.5, placed(-0.6, 0.9, 0.75)), 100);
-    add("fence", BodyRole::kObstacle, "", capsuleAt(0.1, 2.0, placed(0, -1.3, 1.0, {1, 0, 0})), 100);
-    add("beam", BodyRole::kObstacle, "", capsuleAt(0.1, 2.0, placed(-0.5, 0, 2.2, {0, 1, 0})), 100);
+    add("rail", BodyRole::kObstacle, "", capsuleAt(0.15, 1.2, placed(1.0, 0, 0.3, {0, 1, 0})), 80);
+    add("column", BodyRole::kObstacle, "", capsuleAt(0.12, 1.5, placed(-0.6, 0.9, 0.75)), 72);
+    add("fence", BodyRole::kObstacle, "", capsuleAt(0.1, 2.0, placed(0, -1.3, 1.0, {1, 0, 0})), 64);
+    add("beam", BodyRole::kObstacle, "", capsuleAt(0.1, 2.0, placed(-0.5, 0, 2.2, {0, 1, 0})), 64);
     LinkShape part;
     part.kind = LinkShape::Kind::kSphere;
     part.radius = 0.25;
     part.X_LS = placed(0, 0, 0.3);
-    add("part", BodyRole::kWorkpiece, "turntable", part, 101);
+    add("part", BodyRole::kWorkpiece, "turntable", part, 100);
     return description;
   }
 
