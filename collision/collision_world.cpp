@@ -22,20 +22,6 @@ const Piece& pieceOf(const fcl::CollisionObjectd* object) {
   return *static_cast<const Piece*>(object->getUserData());
 }
 
-/// Does the pair rule of CollisionWorld (see its header) check these two?
-bool isChecked(const WorldModel& model, const Piece& a, const Piece& b) {
-  if (model.isAllowed(a.body, b.body)) return false;
-  const Piece& moving = a.kind == PieceKind::kCell ? b : a;
-  const Piece& other = a.kind == PieceKind::kCell ? a : b;
-  if (other.kind == PieceKind::kCell) {
-    if (moving.kind == PieceKind::kLink) return moving.frame != 0;
-    const bool workpiece = other.role == BodyRole::kWorkpiece;
-    return moving.kind == PieceKind::kTool ? !workpiece : workpiece;
-  }
-  // Between moving pieces the whole tool stands for the tool.
-  return a.kind != PieceKind::kToolBeyondTip && b.kind != PieceKind::kToolBeyondTip;
-}
-
 /// Is piece `inner` (no surface contact with `outer` is known) wholly inside
 /// the closed mesh of `outer`? Only possible when its box lies in outer's.
 bool isInside(const fcl::CollisionObjectd& inner, const Piece& inner_piece,
@@ -80,7 +66,7 @@ bool stateCallback(fcl::CollisionObjectd* a, fcl::CollisionObjectd* b, void* dat
   StateSearch& search = *static_cast<StateSearch*>(data);
   const Piece& piece_a = pieceOf(a);
   const Piece& piece_b = pieceOf(b);
-  if (!isChecked(*search.model, piece_a, piece_b)) return false;
+  if (!search.model->checks(piece_a, piece_b)) return false;
   const StateStatus status = pairStatus(*a, *b, search.model->margin, search.tell_contact);
   if (status == StateStatus::kFree) return false;
   search.result = {status, piece_a.body, piece_b.body};
@@ -94,7 +80,7 @@ struct PairCount {
 
 bool countCallback(fcl::CollisionObjectd* a, fcl::CollisionObjectd* b, void* data) {
   PairCount& count = *static_cast<PairCount*>(data);
-  if (isChecked(*count.model, pieceOf(a), pieceOf(b))) ++count.pairs;
+  if (count.model->checks(pieceOf(a), pieceOf(b))) ++count.pairs;
   return false;
 }
 
@@ -255,7 +241,7 @@ Clearance CollisionWorld::clearance(const kinematics::JointVector& q,
   std::vector<CollisionWorkspace::PairBound>& pairs = workspace.pairs_;
   pairs.clear();
   const auto consider = [&](const fcl::CollisionObjectd& a, const fcl::CollisionObjectd& b) {
-    if (isChecked(*model_, pieceOf(&a), pieceOf(&b))) {
+    if (model_->checks(pieceOf(&a), pieceOf(&b))) {
       pairs.push_back({a.getAABB().distance(b.getAABB()), &a, &b});
     }
   };

@@ -8,7 +8,9 @@
 #include "collision/fcl_geometry.hpp"
 #include "collision/mesh_loader.hpp"
 #include "collision/mesh_trimming.hpp"
+#include "collision/proximity.hpp"
 #include "collision/tessellation.hpp"
+#include "kinematics/forward_kinematics.hpp"
 #include "kinematics/input_error.hpp"
 
 namespace tw::collision::detail {
@@ -143,6 +145,41 @@ void allow(WorldModel& model, int a, int b) {
   model.allowed[b * n + a] = 1;
 }
 
+/// Checked pairs of arm and tool bodies nearer than the margin at the zero
+/// joint vector (clamped into the limits) are most likely a geometry
+/// mistake or a pair to allow: near that pose every state would be invalid.
+/// Each goes into the notes, once, in body order.
+void noteSelfContactsAtRest(WorldModel& model) {
+  const kinematics::ArmModel& arm = model.arm;
+  const kinematics::JointVector q = kinematics::JointVector::Zero(arm.jointCount())
+                                        .cwiseMax(arm.lowerLimits())
+                                        .cwiseMin(arm.upperLimits());
+  kinematics::LinkPoses poses;
+  kinematics::computeLinkPoses(arm, q, poses);
+  std::vector<fcl::CollisionObjectd> objects;
+  objects.reserve(model.moving.size());
+  for (const Piece& piece : model.moving) {
+    objects.emplace_back(piece.geometry, poses.X_BL[piece.frame] * piece.X_PS);
+  }
+  std::vector<std::pair<int, int>> noted;
+  for (std::size_t i = 0; i < objects.size(); ++i) {
+    for (std::size_t j = i + 1; j < objects.size(); ++j) {
+      const Piece& a = model.moving[i];
+      const Piece& b = model.moving[j];
+      const std::pair<int, int> bodies(std::min(a.body, b.body), std::max(a.body, b.body));
+      if (!model.checks(a, b) || std::find(noted.begin(), noted.end(), bodies) != noted.end()) {
+        continue;
+      }
+      if (!nearerThan(objects[i], objects[j], model.margin)) continue;
+      noted.push_back(bodies);
+      model.notes.push_back("\"" + model.body_names[bodies.first] + "\" and \"" +
+                            model.body_names[bodies.second] +
+                            "\" are nearer than the clearance margin at the zero joint "
+                            "vector: fix their geometry or allow the pair");
+    }
+  }
+}
+
 }  // namespace
 
 std::shared_ptr<const WorldModel> buildWorldModel(const kinematics::ArmModel& arm,
@@ -252,6 +289,7 @@ std::shared_ptr<const WorldModel> buildWorldModel(const kinematics::ArmModel& ar
   for (const auto& [first, second] : description.allowed_pairs) {
     allow(*model, bodyIndex(*model, first), bodyIndex(*model, second));
   }
+  noteSelfContactsAtRest(*model);
   return model;
 }
 

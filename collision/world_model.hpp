@@ -61,6 +61,20 @@ struct WorldModel {
   bool isAllowed(int a, int b) const {
     return allowed[static_cast<std::size_t>(a) * body_names.size() + b] != 0;
   }
+
+  /// Does the pair rule of CollisionWorld (see its header) check these two?
+  bool checks(const Piece& a, const Piece& b) const {
+    if (isAllowed(a.body, b.body)) return false;
+    const Piece& moving = a.kind == PieceKind::kCell ? b : a;
+    const Piece& other = a.kind == PieceKind::kCell ? a : b;
+    if (other.kind == PieceKind::kCell) {
+      if (moving.kind == PieceKind::kLink) return moving.frame != 0;
+      const bool workpiece = other.role == BodyRole::kWorkpiece;
+      return moving.kind == PieceKind::kTool ? !workpiece : workpiece;
+    }
+    // Between moving pieces the whole tool stands for the tool.
+    return a.kind != PieceKind::kToolBeyondTip && b.kind != PieceKind::kToolBeyondTip;
+  }
 };
 
 }  // namespace tw::collision::detail

@@ -4,6 +4,7 @@
 
 #include "collision/collision_world.hpp"
 #include "collision/tessellation.hpp"
+#include "kinematics/arm_loader.hpp"
 #include "kinematics/input_error.hpp"
 #include "tests/collision/mesh_files.hpp"
 #include "tests/collision/test_arms.hpp"
@@ -190,6 +191,29 @@ TEST_CASE("Neighbouring links never report, other link pairs do") {
                                  description);
     CollisionWorkspace relaxed_workspace(relaxed);
     CHECK(relaxed.checkState(folded_q, relaxed_workspace).valid());
+  }
+}
+
+TEST_CASE("Link pairs nearer than the margin at the zero pose are pointed out") {
+  // In the sample arm's zero pose the upper-arm capsule (axis x = 155 mm,
+  // r = 95 mm, up to z = 1155 mm) and the forearm capsule (axis x = 270 mm,
+  // r = 75 mm, from z = 1035 mm) overlap at the elbow: 115 mm < 95 + 75 mm.
+  const kinematics::ArmModel arm =
+      kinematics::loadArmDescription(std::string(TW_SOURCE_DIR) + "/samples/arms/weld_arm_1400.xml");
+  const CollisionWorld world(arm, WorldDescription{});
+  REQUIRE_FALSE(world.notes().empty());
+  CHECK_THAT(world.notes()[0], Catch::Contains("\"j2\" and \"j4\"") &&
+                                   Catch::Contains("zero joint vector"));
+  CollisionWorkspace workspace(world);
+  CHECK_FALSE(world.checkState(kinematics::JointVector::Zero(6), workspace).valid());
+
+  SECTION("allowing the pair silences the note") {
+    WorldDescription description;
+    description.allowed_pairs = {{"j2", "j4"}};
+    const CollisionWorld relaxed(arm, description);
+    for (const std::string& note : relaxed.notes()) {
+      CHECK_THAT(note, !Catch::Contains("\"j2\" and \"j4\""));
+    }
   }
 }
 
