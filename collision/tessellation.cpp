@@ -24,6 +24,7 @@ TriangleMesh boxMesh(const Eigen::Vector3d& size) {
   mesh.triangles = {{{0, 2, 1}}, {{1, 2, 3}}, {{4, 5, 6}}, {{5, 7, 6}},
                     {{0, 1, 4}}, {{1, 5, 4}}, {{2, 6, 3}}, {{3, 6, 7}},
                     {{0, 4, 2}}, {{2, 4, 6}}, {{1, 3, 5}}, {{3, 7, 5}}};
+  mesh.closed = true;
   return mesh;
 }
 
@@ -52,6 +53,7 @@ TriangleMesh revolvedMesh(const std::vector<Eigen::Vector2d>& profile, int segme
     }
     mesh.triangles.push_back({{top, at(rings - 1, s), at(rings - 1, s + 1)}});
   }
+  mesh.closed = true;
   return mesh;
 }
 
