@@ -84,7 +84,6 @@ bool countCallback(fcl::CollisionObjectd* a, fcl::CollisionObjectd* b, void* dat
   return false;
 }
 
-
 /// Measures one checked pair and keeps it when it is the closest so far.
 /// Three steps, each cheap where the next is dear: the proximity walk drops
 /// pairs no nearer than the best so far and otherwise yields an upper bound;
@@ -115,10 +114,17 @@ void measurePair(const fcl::CollisionObjectd& a, const fcl::CollisionObjectd& b,
   // milliseconds, one within 0.1 mm a small part of that.
   request.abs_err = tolerance;
   fcl::DistanceResultd result;
-  // Slightly above the walk's find, so that FCL keeps that pair (it only
-  // takes strictly smaller distances) and prunes everything farther.
-  result.min_distance = *near * (1.0 + 1e-9) + 1e-12;
+  // Above the walk's find by more than the tolerance, so that FCL cannot
+  // prune the path to that triangle pair (it only keeps strictly smaller
+  // distances) while it prunes everything farther.
+  result.min_distance = *near + tolerance + 1e-9 * (1.0 + *near);
   fcl::distance(&a, &b, request, result);
+  if (result.o1 == nullptr) {
+    // Nothing below the start was kept (rounding): measure exactly.
+    request.abs_err = 0.0;
+    result = fcl::DistanceResultd();
+    fcl::distance(&a, &b, request, result);
+  }
   if (result.min_distance >= best.distance) return;
   best = {std::max(result.min_distance, 0.0), pieceOf(&a).body, pieceOf(&b).body,
           result.nearest_points[0], result.nearest_points[1]};
@@ -199,6 +205,7 @@ void CollisionWorld::poseArm(const kinematics::JointVector& q,
                      " values, the arm has " + std::to_string(model_->arm.jointCount()) +
                      " joints");
   }
+  if (!q.allFinite()) throw InputError("collision world: joint vector has a non-finite value");
   kinematics::computeLinkPoses(model_->arm, q, workspace.poses_);
   const std::vector<Piece>& moving = model_->moving;
   for (std::size_t i = 0; i < moving.size(); ++i) {
@@ -289,8 +296,11 @@ SegmentResult CollisionWorld::checkSegment(const kinematics::JointVector& q_star
     segment.fraction = fraction;
     return true;
   };
-  if (q_start.size() != q_end.size()) {
-    throw InputError("collision world: segment ends have different joint counts");
+  if (q_start.size() != q_end.size() || q_start.size() != model_->arm.jointCount()) {
+    throw InputError("collision world: segment ends need one value per arm joint");
+  }
+  if (!q_start.allFinite() || !q_end.allFinite()) {
+    throw InputError("collision world: segment end has a non-finite value");
   }
   // Neighbouring states closer than the margin in the motion bound, so no
   // body point passes more than the margin between two valid states.

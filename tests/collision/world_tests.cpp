@@ -1,6 +1,7 @@
 #include <catch2/catch.hpp>
 
 #include <cmath>
+#include <limits>
 
 #include "collision/collision_world.hpp"
 #include "collision/tessellation.hpp"
@@ -278,6 +279,15 @@ TEST_CASE("Bad world descriptions and misuse give clear errors") {
     CollisionWorkspace workspace(world);
     CHECK_THROWS_WITH(world.checkState(joints({0.0, 1.0}), workspace),
                       Catch::Contains("2 values"));
+    CHECK_THROWS_AS(world.checkSegment(joints({0.0}), joints({0.0, 1.0}), workspace), InputError);
+  }
+  SECTION("a joint value that is not a number") {
+    const CollisionWorld world(arm, description);
+    CollisionWorkspace workspace(world);
+    const double nan = std::numeric_limits<double>::quiet_NaN();
+    CHECK_THROWS_WITH(world.checkState(joints({nan}), workspace), Catch::Contains("non-finite"));
+    CHECK_THROWS_WITH(world.checkSegment(joints({0.0}), joints({nan}), workspace),
+                      Catch::Contains("non-finite"));
   }
 }
 
