@@ -1,6 +1,9 @@
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <random>
+#include <thread>
+#include <vector>
 
 #include "collision/collision_world.hpp"
 #include "tests/collision/test_arms.hpp"
@@ -100,6 +103,30 @@ TEST_CASE("A segment found valid has no collision anywhere along it") {
   // Some segments valid and some not, or the re-check above proved nothing.
   CHECK(valid_segments >= 5);
   CHECK(valid_segments <= 55);
+}
+
+TEST_CASE("Threads sharing one world with their own workspaces agree with one thread") {
+  const CollisionWorld world = plateCell();
+  std::vector<kinematics::JointVector> states;
+  for (int i = 0; i < 400; ++i) states.push_back(joints({-3.0 + 6.0 * i / 399.0}));
+  const auto run = [&](std::vector<int>& out) {
+    CollisionWorkspace workspace(world);
+    for (const kinematics::JointVector& q : states) {
+      out.push_back(static_cast<int>(world.checkState(q, workspace).status));
+    }
+  };
+  std::vector<int> alone;
+  run(alone);
+  std::vector<int> first, second;
+  std::thread a([&] { run(first); });
+  std::thread b([&] { run(second); });
+  a.join();
+  b.join();
+  CHECK(first == alone);
+  CHECK(second == alone);
+  // Some states collide and some do not, so the comparison means something.
+  CHECK(std::count(alone.begin(), alone.end(), 0) > 0);
+  CHECK(std::count(alone.begin(), alone.end(), 0) < static_cast<long>(alone.size()));
 }
 
 }  // namespace
