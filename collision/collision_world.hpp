@@ -33,16 +33,19 @@ struct WorldModel;
 ///   skipped, so the links on either side of it become neighbours);
 /// - the tool against every link but the last one with geometry, which
 ///   carries it;
-/// - arm links (except the fixed base) and the tool against every cell body;
-///   against a workpiece the tool counts only outside the ball of radius
-///   ToolDescription::tip_allowance about the TCP, so the tip may work at
-///   the seam while the rest of the tool, and every link, may not touch it;
+/// - arm links and the tool against every cell body, except the arm base
+///   (it does not move, so a conflict of the base with the cell is a matter
+///   of the cell layout, not of any state); against a workpiece the tool
+///   counts only outside the ball of radius ToolDescription::tip_allowance
+///   about the TCP, so the tip may work at the seam while the rest of the
+///   tool, and every link, may not touch it (the ball is cut from the tool
+///   mesh conservatively: up to an eighth of its radius less is exempt);
 /// - never cell bodies against each other (they do not move relative to
 ///   each other during a program), nor any pair in
 ///   WorldDescription::allowed_pairs.
 ///
-/// A state is valid when every checked pair is at least the clearance margin
-/// apart. Touching counts as collision. Meshes are surfaces: a body wholly
+/// A state is valid when every checked pair, self pairs included, is at
+/// least the clearance margin apart. Touching counts as collision. Meshes are surfaces: a body wholly
 /// inside a closed mesh is caught by a containment test; inside an open one
 /// it is not.
 class CollisionWorld {

@@ -43,7 +43,7 @@ struct Piece {
 /// The immutable part of a collision world, shared by the world, its
 /// fixture-moved copies and their workspaces.
 struct WorldModel {
-  WorldModel(const kinematics::ArmModel& arm_model) : arm(arm_model) {}
+  explicit WorldModel(const kinematics::ArmModel& arm_model) : arm(arm_model) {}
 
   kinematics::ArmModel arm;
   Eigen::Isometry3d X_WB = Eigen::Isometry3d::Identity();
