@@ -191,6 +191,29 @@ const std::string& CollisionWorld::bodyName(int index) const {
 
 const std::vector<std::string>& CollisionWorld::notes() const { return model_->notes; }
 
+std::vector<std::pair<int, int>> CollisionWorld::baseConflicts() const {
+  std::vector<std::pair<int, int>> conflicts;
+  for (const Piece& piece : model_->moving) {
+    if (piece.kind != PieceKind::kLink || piece.frame != 0) continue;
+    MarginObject base(piece.geometry, 0.5 * model_->margin);
+    base.setTransform(model_->X_WB * piece.X_PS);
+    base.updateBounds();
+    base.setUserData(const_cast<Piece*>(&piece));
+    for (const auto& cell : cell_objects_) {
+      const std::pair<int, int> pair(piece.body, pieceOf(cell.get()).body);
+      if (model_->isAllowed(pair.first, pair.second) ||
+          std::find(conflicts.begin(), conflicts.end(), pair) != conflicts.end()) {
+        continue;
+      }
+      if (nearerThan(base, *cell, model_->margin) || eitherInside(base, *cell)) {
+        conflicts.push_back(pair);
+      }
+    }
+  }
+  std::sort(conflicts.begin(), conflicts.end());
+  return conflicts;
+}
+
 void CollisionWorld::checkWorkspace(const CollisionWorkspace& workspace) const {
   if (workspace.model_ != model_) {
     throw InputError("collision world: the workspace was made for another collision world");

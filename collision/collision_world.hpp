@@ -4,6 +4,7 @@
 
 #include <memory>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "collision/collision_workspace.hpp"
@@ -72,6 +73,11 @@ class CollisionWorld {
   /// Things worth telling the user that are not errors, e.g. degenerate
   /// triangles dropped from a mesh file. In a stable order.
   const std::vector<std::string>& notes() const;
+
+  /// Pairs (arm base body, cell body) nearer than the clearance margin: the
+  /// base is never checked per state (it does not move), so a cell layout
+  /// that puts something into the arm's foot shows here. In body order.
+  std::vector<std::pair<int, int>> baseConflicts() const;
 
   /// Is the joint vector q (one value per arm joint, not checked against
   /// limits) free of collision with the clearance margin? Stops at the first

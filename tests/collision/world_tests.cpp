@@ -218,6 +218,27 @@ TEST_CASE("Link pairs nearer than the margin at the zero pose are pointed out") 
   }
 }
 
+TEST_CASE("A cell body in the arm's foot is reported once, not per state") {
+  const kinematics::LinkShape foot = test::boxShape(Eigen::Vector3d(0.4, 0.4, 0.2), {0, 0, 0.1});
+  const kinematics::LinkShape bar =
+      test::boxShape(Eigen::Vector3d(0.6, 0.1, 0.1), Eigen::Vector3d(0.25, 0, 0.5));
+  WorldDescription description;
+  // The cable duct overlaps the foot (x from 0.15 to 0.5 against 0.2); the
+  // fence is 1 m away.
+  description.bodies.push_back(
+      {"duct", BodyRole::kObstacle, "", {test::boxShape({0.35, 0.1, 0.1}, {0.325, 0, 0.05})}});
+  description.bodies.push_back(
+      {"fence", BodyRole::kObstacle, "", {test::boxShape({0.1, 2.0, 2.0}, {1.2, 0, 0})}});
+  const CollisionWorld world(test::planarArm({{foot}, {bar}}, 0.5), description);
+  const std::vector<std::pair<int, int>> conflicts = world.baseConflicts();
+  REQUIRE(conflicts.size() == 1);
+  CHECK(world.bodyName(conflicts[0].first) == "base");
+  CHECK(world.bodyName(conflicts[0].second) == "duct");
+  // States do not report it: the link above is clear of both.
+  CollisionWorkspace workspace(world);
+  CHECK(world.checkState(joints({0.0}), workspace).valid());
+}
+
 TEST_CASE("Clearance to a fixture body follows the fixture frame") {
   WorldDescription description;
   description.fixtures.push_back({"table", Eigen::Isometry3d(Eigen::Translation3d(1.0, 0, 0))});
