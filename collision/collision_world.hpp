@@ -92,12 +92,16 @@ class CollisionWorld {
                       const ClearanceQuery& query = {}) const;
 
   /// Is the straight joint-space segment from q_start to q_end valid? States
-  /// along it are checked (with the margin) so densely that between two
-  /// neighbours no point of any body moves as far as the margin: the motion
-  /// bound of Schwarzer, Saha and Latombe (IEEE T-RO 21(3), 2005, sec. III),
-  /// sum over joints of |Δq_j| times the farthest reach of the body from
-  /// joint j's axis. So no obstacle, however thin, is stepped over. Both
-  /// ends are checked too.
+  /// along it (both ends included) are checked with the margin so densely
+  /// that between two neighbours no point of any body moves as far as the
+  /// margin. The motion bound is that of Schwarzer, Saha and Latombe,
+  /// "Adaptive dynamic collision checking for single and multiple
+  /// articulated robots in complex environments", IEEE T-RO 21(3), 2005
+  /// (from memory): the sum over joints of |Δq_j| times the farthest reach
+  /// of the body from joint j's axis. A pair's distance changes by no more
+  /// than one body moves relative to the other (for two links: through the
+  /// joints between them), so every state of a valid segment keeps at least
+  /// half the margin and no obstacle, however thin, is stepped over.
   SegmentResult checkSegment(const kinematics::JointVector& q_start,
                              const kinematics::JointVector& q_end,
                              CollisionWorkspace& workspace) const;

@@ -64,7 +64,7 @@ TEST_CASE("The motion bound covers the farthest point of every body") {
   CHECK(world.motionBound(joints({0.2}), joints({0.5})) >= 0.3 * reach - 1e-12);
 }
 
-TEST_CASE("A segment found valid has no collision anywhere along it") {
+TEST_CASE("A segment found valid keeps half the margin everywhere along it") {
   // Two links over a field of posts; random segments, dense re-check.
   WorldDescription description;
   for (int i = 0; i < 6; ++i) {
@@ -82,24 +82,27 @@ TEST_CASE("A segment found valid has no collision anywhere along it") {
   std::mt19937 random(20261201);
   std::uniform_real_distribution<double> angle(-3.0, 3.0);
   int valid_segments = 0;
-  int colliding_states = 0;
+  int close_states = 0;
   for (int trial = 0; trial < 60; ++trial) {
     const kinematics::JointVector a = joints({angle(random), angle(random)});
     const kinematics::JointVector b = joints({angle(random), angle(random)});
     CAPTURE(trial, a.transpose(), b.transpose());
     if (!world.checkSegment(a, b, workspace).valid()) continue;
     ++valid_segments;
-    // Re-check with steps 100 times finer than the margin: nothing touches.
-    const int steps = static_cast<int>(100 * world.motionBound(a, b) / world.clearanceMargin()) + 1;
+    // Re-measured with steps 20 times finer than the margin, the clearance
+    // never drops below half the margin (the header's guarantee; primitive
+    // distances are exact, 1e-12 m covers rounding).
+    const int steps = static_cast<int>(20 * world.motionBound(a, b) / world.clearanceMargin()) + 1;
     for (int i = 0; i <= steps; ++i) {
       const kinematics::JointVector q = a + (static_cast<double>(i) / steps) * (b - a);
-      if (world.checkState(q, workspace).status == StateStatus::kInCollision) {
-        ++colliding_states;
-        FAIL_CHECK("collision inside a valid segment at step " << i << " of " << steps);
+      const double distance = world.clearance(q, workspace).distance;
+      if (distance < 0.5 * world.clearanceMargin() - 1e-12) {
+        ++close_states;
+        FAIL_CHECK("clearance " << distance << " m at step " << i << " of " << steps);
       }
     }
   }
-  CHECK(colliding_states == 0);
+  CHECK(close_states == 0);
   // Some segments valid and some not, or the re-check above proved nothing.
   CHECK(valid_segments >= 5);
   CHECK(valid_segments <= 55);
