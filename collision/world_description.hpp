@@ -1,0 +1,70 @@
+#pragma once
+
+#include <Eigen/Geometry>
+#include <optional>
+#include <string>
+#include <utility>
+#include <vector>
+
+#include "kinematics/link_geometry.hpp"
+
+namespace tw::collision {
+
+/// What a cell body is to the checks: an obstacle counts against every part
+/// of the arm and tool; a workpiece counts against the arm and the tool,
+/// except the tool tip near the TCP (see ToolDescription::tip_allowance).
+enum class BodyRole { kObstacle, kWorkpiece };
+
+const char* toString(BodyRole role);
+
+/// A named frame that cell bodies may be attached to (a fixture, a part
+/// carrier); moving it moves them.
+struct FixtureFrame {
+  std::string name;
+  Eigen::Isometry3d X_WX = Eigen::Isometry3d::Identity();
+};
+
+/// One static body of the cell. Each shape's X_LS is its pose in the parent
+/// frame: the world, or the fixture frame named by `fixture`.
+struct CellBody {
+  std::string name;
+  BodyRole role = BodyRole::kObstacle;
+  /// "" for the world frame, else the name of a FixtureFrame.
+  std::string fixture;
+  std::vector<kinematics::LinkShape> shapes;
+};
+
+/// The tool on the flange. Shape poses are in the flange frame F.
+struct ToolDescription {
+  std::string name = "tool";
+  std::vector<kinematics::LinkShape> shapes;
+  /// Tool centre point in the flange frame.
+  Eigen::Isometry3d X_FT = Eigen::Isometry3d::Identity();
+  /// Radius [m] of the ball about the TCP inside which the tool may touch a
+  /// workpiece (a torch nozzle or glue tip works at the seam). Contact of
+  /// the rest of the tool, or of any arm link, with a workpiece still counts.
+  double tip_allowance = 0.02;
+  /// Divisions around the axis when a primitive tool shape is turned into a
+  /// mesh so that its tip can be cut away.
+  int tessellation_segments = 32;
+};
+
+/// Everything the collision world is built from, besides the arm (whose
+/// link geometry comes from its description). Lengths [m].
+struct WorldDescription {
+  /// Arm base frame in the world.
+  Eigen::Isometry3d X_WB = Eigen::Isometry3d::Identity();
+  std::vector<FixtureFrame> fixtures;
+  std::vector<CellBody> bodies;
+  /// Absent for a bare flange.
+  std::optional<ToolDescription> tool;
+  /// A state whose closest checked pair is nearer than this [m] is invalid:
+  /// meshes only approximate the real equipment. Must be > 0 (the segment
+  /// check relies on it).
+  double clearance_margin = 0.010;
+  /// Further pairs of body names never checked against each other, on top of
+  /// the built-in rules (adjacent links, the tool and the last link).
+  std::vector<std::pair<std::string, std::string>> allowed_pairs;
+};
+
+}  // namespace tw::collision

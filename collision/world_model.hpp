@@ -1,0 +1,89 @@
+#pragma once
+
+#include <Eigen/Geometry>
+#include <fcl/geometry/collision_geometry.h>
+
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "collision/triangle_mesh.hpp"
+#include "collision/world_description.hpp"
+#include "kinematics/arm_model.hpp"
+
+namespace tw::collision::detail {
+
+/// Which frame a piece hangs from and which rules apply to it.
+enum class PieceKind {
+  kLink,           ///< on an arm link
+  kTool,           ///< the whole tool, on the flange; checked against all but workpieces
+  kToolBeyondTip,  ///< the tool without its tip zone; checked against workpieces only
+  kCell,           ///< a cell body in the world or a fixture frame
+};
+
+/// One FCL shape of a body, with its place. Geometry is shared, never mutated.
+struct Piece {
+  int body = -1;
+  PieceKind kind = PieceKind::kCell;
+  /// kLink: link index (0 = arm base). kCell: fixture index, -1 for the world.
+  int frame = -1;
+  BodyRole role = BodyRole::kObstacle;
+  std::shared_ptr<fcl::CollisionGeometryd> geometry;
+  /// The geometry is a closed mesh, so a body inside it must be tested for.
+  bool closed = false;
+  /// Pose of the shape in its parent frame (link, flange, fixture or world).
+  Eigen::Isometry3d X_PS = Eigen::Isometry3d::Identity();
+  /// A point of the piece in its shape frame, for containment tests.
+  Eigen::Vector3d p_S_probe = Eigen::Vector3d::Zero();
+  /// Moving pieces: per joint, the most any point of the piece moves per
+  /// unit of that joint's motion [m/rad or m/m] (0 for joints after it).
+  std::vector<double> lever;
+};
+
+/// The immutable part of a collision world, shared by the world, its
+/// fixture-moved copies and their workspaces.
+struct WorldModel {
+  explicit WorldModel(const kinematics::ArmModel& arm_model) : arm(arm_model) {}
+
+  kinematics::ArmModel arm;
+  Eigen::Isometry3d X_WB = Eigen::Isometry3d::Identity();
+  double margin = 0.0;
+  std::vector<std::string> body_names;
+  std::vector<std::string> fixture_names;
+  /// Arm and tool pieces, in body order.
+  std::vector<Piece> moving;
+  /// Cell pieces, in body order; their world pose depends on the fixtures.
+  std::vector<Piece> cell;
+  /// allowed[a * body_count + b]: the pair (a, b) is never checked.
+  std::vector<char> allowed;
+  std::vector<std::string> notes;
+
+  bool isAllowed(int a, int b) const {
+    return allowed[static_cast<std::size_t>(a) * body_names.size() + b] != 0;
+  }
+
+  /// Does the pair rule of CollisionWorld (see its header) check these two?
+  bool checks(const Piece& a, const Piece& b) const {
+    if (isAllowed(a.body, b.body)) return false;
+    const Piece& moving = a.kind == PieceKind::kCell ? b : a;
+    const Piece& other = a.kind == PieceKind::kCell ? a : b;
+    if (other.kind == PieceKind::kCell) {
+      if (moving.kind == PieceKind::kLink) return moving.frame != 0;
+      const bool workpiece = other.role == BodyRole::kWorkpiece;
+      return moving.kind == PieceKind::kTool ? !workpiece : workpiece;
+    }
+    // Between moving pieces the whole tool stands for the tool.
+    return a.kind != PieceKind::kToolBeyondTip && b.kind != PieceKind::kToolBeyondTip;
+  }
+};
+
+}  // namespace tw::collision::detail
+
+namespace tw::collision::detail {
+
+/// Loads and checks everything a CollisionWorld needs (see its constructor
+/// for the errors thrown).
+std::shared_ptr<const WorldModel> buildWorldModel(const kinematics::ArmModel& arm,
+                                                  const WorldDescription& description);
+
+}  // namespace tw::collision::detail
