@@ -196,11 +196,12 @@ TEST_CASE("Neighbouring links never report, other link pairs do") {
 }
 
 TEST_CASE("Link pairs nearer than the margin at the zero pose are pointed out") {
-  // In the sample arm's zero pose the upper-arm capsule (axis x = 155 mm,
+  // In this arm's zero pose the upper-arm capsule (axis x = 155 mm,
   // r = 95 mm, up to z = 1155 mm) and the forearm capsule (axis x = 270 mm,
   // r = 75 mm, from z = 1035 mm) overlap at the elbow: 115 mm < 95 + 75 mm.
   const kinematics::ArmModel arm =
-      kinematics::loadArmDescription(std::string(TW_SOURCE_DIR) + "/samples/arms/weld_arm_1400.xml");
+      kinematics::loadArmDescription(std::string(TW_SOURCE_DIR) +
+                                     "/tests/collision/data/overlapping_elbow_arm.xml");
   const CollisionWorld world(arm, WorldDescription{});
   REQUIRE_FALSE(world.notes().empty());
   CHECK_THAT(world.notes()[0], Catch::Contains("\"j2\" and \"j4\"") &&
@@ -208,6 +209,12 @@ TEST_CASE("Link pairs nearer than the margin at the zero pose are pointed out") 
   CollisionWorkspace workspace(world);
   CHECK_FALSE(world.checkState(kinematics::JointVector::Zero(6), workspace).valid());
 
+  SECTION("the sample arm has no such pair") {
+    const CollisionWorld sample(kinematics::loadArmDescription(std::string(TW_SOURCE_DIR) +
+                                                               "/samples/arms/weld_arm_1400.xml"),
+                                WorldDescription{});
+    CHECK(sample.notes().empty());
+  }
   SECTION("allowing the pair silences the note") {
     WorldDescription description;
     description.allowed_pairs = {{"j2", "j4"}};
