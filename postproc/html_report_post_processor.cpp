@@ -124,8 +124,7 @@ class PageWriter {
   }
 
   std::string figuresAndWarnings() const {
-    std::string out = "<section class=\"card\"><div class=\"columns\"><div>";
-    out += element("h2", "Figures");
+    std::string out = "<section class=\"card\" id=\"figures\">" + element("h2", "Figures");
     const std::string& length = quantities_.length.unit;
     const std::string& angle = quantities_.angle.unit;
     out += "<table class=\"figures\"><tr><th class=\"text\">scope</th><th>motions</th>"
@@ -156,12 +155,12 @@ class PageWriter {
     for (const json& seam : summary_.at("seams")) {
       out += row(seam.at("seam").get<std::string>(), seam, "time");
     }
-    out += "</table></div><div>";
+    out += "</table>";
     out += element("h2", "Warnings (" + std::to_string(warnings_.size()) + ")");
     if (warnings_.empty()) {
       out += element("p", "No warnings at the thresholds of this report.", "class=\"ok\"");
     } else {
-      out += "<ol class=\"warnings\">";
+      out += "<ul class=\"warnings\">";
       for (std::size_t w = 0; w < warnings_.size(); ++w) {
         const ReviewWarning& warning = warnings_[w];
         std::string item = element("span", 'W' + std::to_string(w + 1), "class=\"tag\"") +
@@ -171,7 +170,7 @@ class PageWriter {
         }
         out += "<li id=\"w" + std::to_string(w + 1) + "\">" + item + "</li>";
       }
-      out += "</ol>";
+      out += "</ul>";
     }
     out += element("p", "Thresholds: clearance " + quantities_.length.format(options_.clearance_warning) +
                             ' ' + length + ", singularity margin " +
@@ -184,7 +183,7 @@ class PageWriter {
                             quantities_.speed.format(kReducedSpeedLimit) + ' ' +
                             quantities_.speed.unit + " (ISO 10218-1 reduced speed).",
                     "class=\"note\"");
-    return out + "</div></div></section>\n";
+    return out + "</section>\n";
   }
 
   std::string views() const {
@@ -194,8 +193,14 @@ class PageWriter {
     out += "<div class=\"legend\"><span><span class=\"swatch sw-process\"></span>process on</span>"
            "<span><span class=\"swatch sw-seam\"></span>approach / retract of a seam</span>"
            "<span><span class=\"swatch sw-air\"></span>moves outside seams</span>"
-           "<span>path drawn straight between targets; a joint move's real TCP path differs</span>"
-           "</div>";
+           "<span>path drawn straight between targets; a joint move's real TCP path differs</span>";
+    const std::vector<ReportBody>& bodies = options_.report_cell.bodies;
+    for (std::size_t b = 0; b < bodies.size(); ++b) {
+      out += "<span><span class=\"swatch sw-body-" + std::to_string(b % 4) + "\"></span>" +
+             escapeXml(bodies[b].name.empty() ? "body " + std::to_string(b + 1) : bodies[b].name) +
+             "</span>";
+    }
+    out += "</div>";
     for (const std::string& note : viewNotes()) out += element("p", note, "class=\"note\"");
     return out + "</section>\n";
   }

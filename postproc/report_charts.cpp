@@ -50,7 +50,9 @@ AxisTicks ReportCharts::timeTicks(const ReportScope& scope) const {
   const double start = scope.lead_in ? timeline_[*scope.lead_in].end_time
                        : scope.seam.empty() ? 0.0
                                             : first.start_time;
-  return niceTicks(start, timeline_[scope.motions.back()].end_time);
+  // Eight ticks: a seam's time axis then ends near its last motion rather
+  // than a coarse step later.
+  return niceTicks(start, timeline_[scope.motions.back()].end_time, 8);
 }
 
 std::string ReportCharts::attributes(const ReportScope& scope, const std::string& kind) const {
@@ -107,9 +109,7 @@ std::string ReportCharts::jointChart(const ReportScope& scope, int joint,
   for (const PlotPoint& point : points) plot.dot(point, 1.8, "dot-joint");
   markWarnings(scope, WarningKind::kJointLimit, joint, plot);
   const std::string caption = "min " + formatFixed(extremes.low, format.decimals) + " · max " +
-                              formatFixed(extremes.high, format.decimals) + ' ' + format.unit +
-                              " · limits " + formatFixed(lower, format.decimals) + " … " +
-                              formatFixed(upper, format.decimals);
+                              formatFixed(extremes.high, format.decimals) + ' ' + format.unit;
   return figure(plot, caption, limitGauge(joint, extremes.low, extremes.high));
 }
 
@@ -159,7 +159,9 @@ std::string ReportCharts::speedChart(const ReportScope& scope, const std::string
       commanded.push_back({{motion.start_time, value}, {entry.end_time, value}});
       extremes.offer(value);
     }
-    if (entry.chord_speed) {
+    // A joint move's chord says little about its real TCP path, so only
+    // linear moves are compared with their commanded speed.
+    if (entry.chord_speed && motion.kind == planner::MotionKind::kLinearMove) {
       const double value = *entry.chord_speed * scale;
       chord.push_back({{motion.start_time, value}, {entry.end_time, value}});
       extremes.offer(value);
@@ -179,7 +181,7 @@ std::string ReportCharts::speedChart(const ReportScope& scope, const std::string
   const QuantityFormat& format = quantities_.speed;
   return figure(plot, "min " + format.format(extremes.low / scale) + " · max " +
                           format.format(extremes.high / scale) + ' ' + format.unit +
-                          " · solid: commanded, thin: chord over duration");
+                          " · thick: commanded, thin: chord ÷ duration");
 }
 
 std::string ReportCharts::clearanceChart(const ReportScope& scope, const std::string& id) const {

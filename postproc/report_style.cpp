@@ -23,6 +23,7 @@ main { max-width: 1360px; margin: 0 auto; padding: 16px 20px 40px; }
 section.card { background: var(--card); border: 1px solid var(--rule); border-radius: 6px;
   padding: 12px 16px 14px; margin: 0 0 14px; }
 h2 { font-size: 16px; margin: 0 0 8px; font-weight: 600; }
+h2 + h2, table + h2 { margin-top: 14px; }
 h3 { font-size: 13px; margin: 12px 0 6px; color: var(--muted); font-weight: 600;
   text-transform: uppercase; letter-spacing: 0.05em; }
 .caution { background: #fff6e5; border: 1px solid #e7c27d; border-left: 6px solid #c77700;
@@ -30,22 +31,20 @@ h3 { font-size: 13px; margin: 12px 0 6px; color: var(--muted); font-weight: 600;
 .caution strong { color: #7a4600; }
 .caution p { margin: 4px 0; }
 .note { color: var(--muted); font-style: italic; margin: 6px 0 0; }
-.columns { display: flex; flex-wrap: wrap; gap: 18px; }
-.columns > div { flex: 1 1 420px; min-width: 0; }
 table { border-collapse: collapse; font-variant-numeric: tabular-nums; }
 th, td { padding: 3px 8px; border-bottom: 1px solid var(--rule); text-align: right; white-space: nowrap; }
 th { background: #f3f5f7; font-weight: 600; color: var(--muted); font-size: 12px; }
 td.text, th.text { text-align: left; }
 tr.event td { color: var(--muted); background: #fafbfc; }
 tr.warned td:first-child { border-left: 3px solid var(--alert); }
-ol.warnings { margin: 0; padding-left: 30px; }
-ol.warnings li { margin: 2px 0; }
-ol.warnings .tag { display: inline-block; min-width: 28px; font-weight: 700; color: var(--alert); }
+ul.warnings { margin: 0; padding: 0; list-style: none; }
+ul.warnings li { margin: 2px 0; padding-left: 34px; text-indent: -34px; }
+ul.warnings .tag { display: inline-block; min-width: 34px; text-indent: 0; font-weight: 700; color: var(--alert); }
 .ok { color: var(--teal); }
 .views { display: flex; flex-wrap: wrap; gap: 10px; justify-content: space-between; }
 .chart-grid { display: flex; flex-wrap: wrap; gap: 6px 10px; }
 figure { margin: 0; }
-figure.chart { width: 428px; }
+figure.chart { width: 420px; }
 figure.chart-empty { height: 120px; border: 1px dashed var(--rule); border-radius: 4px; padding: 8px 12px; color: var(--muted); }
 .empty-title { font-weight: 600; color: var(--ink); }
 .chart-row { display: flex; align-items: flex-start; }
@@ -54,6 +53,8 @@ figcaption { color: var(--muted); font-size: 11.5px; padding-left: 62px; font-va
 .swatch { display: inline-block; width: 22px; height: 10px; vertical-align: middle; margin-right: 5px; border-radius: 2px; }
 .sw-process { background: var(--orange); } .sw-seam { background: var(--teal); }
 .sw-air { background: repeating-linear-gradient(90deg, #8a96a0 0 5px, transparent 5px 8px); }
+.sw-body-0 { background: #d7dde3; } .sw-body-1 { background: #e9dcc2; }
+.sw-body-2 { background: #d3e4d6; } .sw-body-3 { background: #ddd6e8; }
 .sw-limit { background: var(--rose); } .sw-near { background: var(--sand); }
 .sw-warning { border-left: 2px dashed var(--alert); width: 2px; border-radius: 0; }
 details summary { cursor: pointer; font-weight: 600; font-size: 15px; }
@@ -82,13 +83,14 @@ text.warning-mark-label { font-size: 10px; font-weight: 700; fill: var(--alert);
 .body { stroke-width: 0.5; stroke-linejoin: round; }
 .body-0 { fill: #d7dde3; stroke: #a9b4be; } .body-1 { fill: #e9dcc2; stroke: #c2ab82; }
 .body-2 { fill: #d3e4d6; stroke: #97b89e; } .body-3 { fill: #ddd6e8; stroke: #aa9dc2; }
-text.body-label { font-size: 10.5px; fill: #46535e; text-anchor: middle; }
+text.body-label { font-size: 10px; fill: #46535e; }
 .path-process { fill: none; stroke: var(--orange); stroke-width: 3.2; stroke-linecap: round; }
 .path-seam { fill: none; stroke: var(--teal); stroke-width: 1.8; stroke-linecap: round; }
 .path-air { fill: none; stroke: #8a96a0; stroke-width: 1.2; stroke-dasharray: 5 3; }
 .path-start { fill: #ffffff; stroke: var(--ink); stroke-width: 1.5; }
 .seam-dot { fill: var(--teal); }
-text.seam-label { font-size: 11.5px; font-weight: 700; fill: var(--teal); }
+text.seam-label { font-size: 11.5px; font-weight: 700; fill: var(--teal); paint-order: stroke; stroke: #ffffff; stroke-width: 3px; }
+text.seam-label-left { text-anchor: end; }
 text.path-label, text.base-label { font-size: 10.5px; fill: var(--muted); }
 .base-mark { fill: #ffffff; stroke: var(--ink); stroke-width: 2; }
 .base-centre { fill: var(--ink); }

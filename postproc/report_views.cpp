@@ -113,9 +113,13 @@ std::string oneView(const ViewAxes& axes, const std::vector<TimelineMotion>& tim
       if (triangle.body != b) continue;
       for (const PlotPoint& corner : triangle.corners) body_box.offer(corner);
     }
-    if (body_box.x_low > body_box.x_high) continue;
-    plot.text({0.5 * (body_box.x_low + body_box.x_high), 0.5 * (body_box.y_low + body_box.y_high)},
-              0.0, 4.0, cell.bodies[b].name, "body-label");
+    // Inside the top-left corner, when the body is large enough on screen
+    // for its name (about 6 px per character at 10 px); the legend names
+    // every body anyway.
+    const double width_px = (body_box.x_high - body_box.x_low) * plot.pixelsPerUnitX();
+    const double height_px = (body_box.y_high - body_box.y_low) * plot.pixelsPerUnitX();
+    if (width_px < 6.0 * cell.bodies[b].name.size() + 8.0 || height_px < 14.0) continue;
+    plot.text({body_box.x_low, body_box.y_high}, 4.0, 11.0, cell.bodies[b].name, "body-label");
   }
   if (base) {
     plot.dot(*base, 7.0, "base-mark");
@@ -135,7 +139,10 @@ std::string oneView(const ViewAxes& axes, const std::vector<TimelineMotion>& tim
     if (seam.empty() || std::find(labelled.begin(), labelled.end(), seam) != labelled.end()) continue;
     labelled.push_back(seam);
     plot.dot(path[i], 3.0, "seam-dot");
-    plot.text(path[i], 6.0, 14.0, seam, "seam-label");
+    // Alternate sides so that seams starting close together stay readable.
+    const bool left = labelled.size() % 2 == 0;
+    plot.text(path[i], left ? -6.0 : 6.0, left ? -6.0 : 14.0, seam,
+              left ? "seam-label seam-label-left" : "seam-label");
   }
   return "<figure class=\"view-figure\">" + plot.svg() + "</figure>";
 }

@@ -103,6 +103,10 @@ double SvgPlot::pixelY(double y) const {
   return layout_.top + (y_high_ - y) / (y_high_ - y_low_) * area;
 }
 
+double SvgPlot::pixelsPerUnitX() const {
+  return (layout_.width - layout_.left - layout_.right) / (x_high_ - x_low_);
+}
+
 void SvgPlot::title(const std::string& text) { title_ = text; }
 
 void SvgPlot::axisLabels(const std::string& x_label, const std::string& y_label) {
@@ -144,8 +148,10 @@ void SvgPlot::verticalMark(double x, const std::string& label, const std::string
   const std::string pixel = px(pixelX(x));
   marks_ += "<line class=\"" + css_class + "\" x1=\"" + pixel + "\" y1=\"" + px(layout_.top) +
             "\" x2=\"" + pixel + "\" y2=\"" + px(layout_.height - layout_.bottom) + "\"/>";
-  labels_ += "<text class=\"" + css_class + "-label\" x=\"" + pixel + "\" y=\"" +
-             px(layout_.top - 3.0) + "\" text-anchor=\"middle\">" + escapeXml(label) + "</text>";
+  // Every second label just inside the frame, so that close marks stay legible.
+  const double label_y = mark_count_++ % 2 == 0 ? layout_.top - 3.0 : layout_.top + 11.0;
+  labels_ += "<text class=\"" + css_class + "-label\" x=\"" + pixel + "\" y=\"" + px(label_y) +
+             "\" text-anchor=\"middle\">" + escapeXml(label) + "</text>";
 }
 
 void SvgPlot::dot(PlotPoint point, double radius, const std::string& css_class) {

@@ -80,6 +80,9 @@ class SvgPlot {
   void text(PlotPoint point, double dx, double dy, const std::string& text,
             const std::string& css_class);
 
+  /// Pixels per data unit along x (for sizing labels against marks).
+  double pixelsPerUnitX() const;
+
   /// The complete <svg> element.
   std::string svg() const;
 
@@ -98,6 +101,7 @@ class SvgPlot {
   std::string y_label_;
   std::string marks_;  ///< clipped to the data area
   std::string labels_;  ///< drawn over the marks, not clipped
+  int mark_count_ = 0;
 };
 
 /// `text` with &, <, > and " escaped for XML text and attribute values.
