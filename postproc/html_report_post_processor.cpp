@@ -253,14 +253,15 @@ class PageWriter {
       out += charts_.jointChart(scope, j, id + "-joint" + std::to_string(j + 1));
     }
     out += "</div>";
-    out += "<div class=\"legend\"><span><span class=\"swatch sw-limit\"></span>beyond a limit</span>"
-           "<span><span class=\"swatch sw-near\"></span>within the warning margin of a limit or "
-           "threshold</span><span><span class=\"swatch sw-warning\"></span>warning (see list)</span>"
-           "<span>bar beside each chart: the joint's whole range, the used part dark</span></div>";
     out += element("h3", "Speed and margins");
     out += "<div class=\"chart-grid\">" + charts_.speedChart(scope, id + "-speed") +
            charts_.clearanceChart(scope, id + "-clearance") +
            charts_.singularityChart(scope, id + "-singularity") + "</div>";
+    out += "<div class=\"legend\"><span><span class=\"swatch sw-span\"></span>process on</span>"
+           "<span><span class=\"swatch sw-limit\"></span>beyond a limit</span>"
+           "<span><span class=\"swatch sw-near\"></span>within the warning margin of a limit or "
+           "threshold</span><span><span class=\"swatch sw-warning\"></span>warning (see list)</span>"
+           "<span>bar beside each chart: the joint's whole range, the used part dark</span></div>";
     return out + "</section>\n";
   }
 

@@ -60,6 +60,13 @@ std::string ReportCharts::attributes(const ReportScope& scope, const std::string
          escapeXml(scope.seam.empty() ? "program" : scope.seam) + '"';
 }
 
+void ReportCharts::shadeProcess(const ReportScope& scope, SvgPlot& plot) const {
+  for (const std::size_t index : scope.motions) {
+    const TimelineMotion& entry = timeline_[index];
+    if (entry.process_on) plot.span(entry.motion->start_time, entry.end_time, "span-process");
+  }
+}
+
 void ReportCharts::markWarnings(const ReportScope& scope, WarningKind kind, int joint,
                                 SvgPlot& plot) const {
   for (std::size_t w = 0; w < warnings_.size(); ++w) {
@@ -100,6 +107,7 @@ std::string ReportCharts::jointChart(const ReportScope& scope, int joint,
                attributes(scope, "joint-plot") + " data-joint=\"" + escapeXml(limits.name) + '"');
   plot.title(limits.name);
   plot.axisLabels("time [s]", format.unit);
+  shadeProcess(scope, plot);
   const double far = 10.0 * (upper - lower);  // beyond any axis this chart can have
   plot.band(lower - far, lower, "band-limit");
   plot.band(upper, upper + far, "band-limit");
@@ -174,6 +182,7 @@ std::string ReportCharts::speedChart(const ReportScope& scope, const std::string
                id, attributes(scope, "speed-plot"));
   plot.title(title);
   plot.axisLabels("time [s]", quantities_.speed.unit);
+  shadeProcess(scope, plot);
   plot.band(limit, limit + 1e3 * std::max(limit, extremes.high), "band-limit");
   for (const auto& step : chord) plot.polyline(step, "line-chord");
   for (const auto& step : commanded) plot.polyline(step, "line-commanded");
@@ -203,13 +212,14 @@ std::string ReportCharts::clearanceChart(const ReportScope& scope, const std::st
                attributes(scope, "clearance-plot"));
   plot.title(title);
   plot.axisLabels("time [s]", format.unit);
+  shadeProcess(scope, plot);
   plot.band(-1e3 * threshold - extremes.high, 0.0, "band-limit");
   plot.band(0.0, threshold, "band-near");
   for (const auto& step : steps) plot.polyline(step, "line-clearance");
   markWarnings(scope, WarningKind::kClearance, -1, plot);
   return figure(plot, "min " + formatFixed(extremes.low, format.decimals) + " · max " +
                           formatFixed(extremes.high, format.decimals) + ' ' + format.unit +
-                          " · warning below " + formatFixed(threshold, format.decimals));
+                          " · warning below " + formatFixed(threshold, format.decimals) + ' ' + format.unit);
 }
 
 std::string ReportCharts::singularityChart(const ReportScope& scope, const std::string& id) const {
@@ -231,13 +241,14 @@ std::string ReportCharts::singularityChart(const ReportScope& scope, const std::
                attributes(scope, "singularity-plot"));
   plot.title(title);
   plot.axisLabels("time [s]", format.unit);
+  shadeProcess(scope, plot);
   plot.band(0.0, threshold, "band-near");
   plot.polyline(points, "line-singularity");
   for (const PlotPoint& point : points) plot.dot(point, 2.2, "dot-singularity");
   markWarnings(scope, WarningKind::kSingularity, -1, plot);
   return figure(plot, "min " + formatFixed(extremes.low, format.decimals) + " · max " +
                           formatFixed(extremes.high, format.decimals) + ' ' + format.unit +
-                          " · warning below " + formatFixed(threshold, format.decimals));
+                          " · warning below " + formatFixed(threshold, format.decimals) + ' ' + format.unit);
 }
 
 }  // namespace tw::postproc

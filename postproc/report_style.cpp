@@ -55,6 +55,7 @@ figcaption { color: var(--muted); font-size: 11.5px; padding-left: 62px; font-va
 .sw-air { background: repeating-linear-gradient(90deg, #8a96a0 0 5px, transparent 5px 8px); }
 .sw-body-0 { background: #d7dde3; } .sw-body-1 { background: #e9dcc2; }
 .sw-body-2 { background: #d3e4d6; } .sw-body-3 { background: #ddd6e8; }
+.sw-span { background: #fbe9df; border: 1px solid #efc9b4; }
 .sw-limit { background: var(--rose); } .sw-near { background: var(--sand); }
 .sw-warning { border-left: 2px dashed var(--alert); width: 2px; border-radius: 0; }
 details summary { cursor: pointer; font-weight: 600; font-size: 15px; }
@@ -67,6 +68,7 @@ line.grid { stroke: #e3e8ec; stroke-width: 1; }
 text.tick { font-size: 10.5px; fill: var(--muted); }
 text.plot-title { font-size: 12.5px; font-weight: 600; }
 text.axis-label { font-size: 10.5px; fill: var(--muted); }
+.span-process { fill: #fbe9df; }
 .band-limit { fill: var(--rose); }
 .band-near { fill: var(--sand); }
 .line-joint { fill: none; stroke: var(--steel); stroke-width: 1.6; stroke-linejoin: round; }
