@@ -257,7 +257,7 @@ class PageWriter {
     out += "<div class=\"chart-grid\">" + charts_.speedChart(scope, id + "-speed") +
            charts_.clearanceChart(scope, id + "-clearance") +
            charts_.singularityChart(scope, id + "-singularity") + "</div>";
-    out += "<div class=\"legend\"><span><span class=\"swatch sw-span\"></span>process on</span>"
+    out += "<div class=\"legend\"><span><span class=\"swatch sw-strip\"></span>process on (strip on the time axis)</span>"
            "<span><span class=\"swatch sw-limit\"></span>beyond a limit</span>"
            "<span><span class=\"swatch sw-near\"></span>within the warning margin of a limit or "
            "threshold</span><span><span class=\"swatch sw-warning\"></span>warning (see list)</span>"

@@ -63,7 +63,7 @@ std::string ReportCharts::attributes(const ReportScope& scope, const std::string
 void ReportCharts::shadeProcess(const ReportScope& scope, SvgPlot& plot) const {
   for (const std::size_t index : scope.motions) {
     const TimelineMotion& entry = timeline_[index];
-    if (entry.process_on) plot.span(entry.motion->start_time, entry.end_time, "span-process");
+    if (entry.process_on) plot.bottomStrip(entry.motion->start_time, entry.end_time, "strip-process");
   }
 }
 

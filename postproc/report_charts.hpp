@@ -17,8 +17,8 @@ namespace tw::postproc {
 /// `data-scope` (the seam, or "program") and, for joints, `data-joint`;
 /// its caption states the smallest and largest plotted value. Warnings of
 /// the chart's kind on a motion of the scope are marked at the motion's end
-/// as "W<number>", numbered from 1 in the order of `warnings`; the time of
-/// motions with the process on is shaded.
+/// as "W<number>", numbered from 1 in the order of `warnings`; a strip along
+/// the time axis marks the motions with the process on.
 ///
 /// Holds references: every argument must outlive the object.
 class ReportCharts {
@@ -45,7 +45,7 @@ class ReportCharts {
   /// start) to the last motion's end.
   AxisTicks timeTicks(const ReportScope& scope) const;
   std::string attributes(const ReportScope& scope, const std::string& kind) const;
-  /// Shades the time of the scope's motions with the process on.
+  /// Marks the time of the scope's motions with the process on by a strip.
   void shadeProcess(const ReportScope& scope, SvgPlot& plot) const;
   void markWarnings(const ReportScope& scope, WarningKind kind, int joint, SvgPlot& plot) const;
   std::string figure(const SvgPlot& plot, const std::string& caption,

@@ -54,8 +54,8 @@ figcaption { color: var(--muted); font-size: 11.5px; padding-left: 62px; font-va
 .sw-process { background: var(--orange); } .sw-seam { background: var(--teal); }
 .sw-air { background: repeating-linear-gradient(90deg, #8a96a0 0 5px, transparent 5px 8px); }
 .sw-body-0 { background: #d7dde3; } .sw-body-1 { background: #e9dcc2; }
-.sw-body-2 { background: #d3e4d6; } .sw-body-3 { background: #ddd6e8; }
-.sw-span { background: #fbe9df; border: 1px solid #efc9b4; }
+.sw-body-2 { background: #d3e4d6; } .sw-body-3 { background: #e7e2ef; }
+.sw-strip { background: var(--orange); height: 4px; }
 .sw-limit { background: var(--rose); } .sw-near { background: var(--sand); }
 .sw-warning { border-left: 2px dashed var(--alert); width: 2px; border-radius: 0; }
 details summary { cursor: pointer; font-weight: 600; font-size: 15px; }
@@ -68,7 +68,7 @@ line.grid { stroke: #e3e8ec; stroke-width: 1; }
 text.tick { font-size: 10.5px; fill: var(--muted); }
 text.plot-title { font-size: 12.5px; font-weight: 600; }
 text.axis-label { font-size: 10.5px; fill: var(--muted); }
-.span-process { fill: #fbe9df; }
+.strip-process { fill: var(--orange); }
 .band-limit { fill: var(--rose); }
 .band-near { fill: var(--sand); }
 .line-joint { fill: none; stroke: var(--steel); stroke-width: 1.6; stroke-linejoin: round; }
@@ -84,7 +84,7 @@ text.warning-mark-label { font-size: 10px; font-weight: 700; fill: var(--alert);
 .gauge-used { fill: var(--steel); opacity: 0.85; }
 .body { stroke-width: 0.5; stroke-linejoin: round; }
 .body-0 { fill: #d7dde3; stroke: #a9b4be; } .body-1 { fill: #e9dcc2; stroke: #c2ab82; }
-.body-2 { fill: #d3e4d6; stroke: #97b89e; } .body-3 { fill: #ddd6e8; stroke: #aa9dc2; }
+.body-2 { fill: #d3e4d6; stroke: #97b89e; } .body-3 { fill: #e7e2ef; stroke: #bfb5d3; }
 text.body-label { font-size: 10px; fill: #46535e; }
 .path-process { fill: none; stroke: var(--orange); stroke-width: 3.2; stroke-linecap: round; }
 .path-seam { fill: none; stroke: var(--teal); stroke-width: 1.8; stroke-linecap: round; }

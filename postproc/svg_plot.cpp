@@ -123,13 +123,14 @@ void SvgPlot::band(double y_low, double y_high, const std::string& css_class) {
             "\" height=\"" + px(pixelY(low) - pixelY(high)) + "\"/>";
 }
 
-void SvgPlot::span(double x_low, double x_high, const std::string& css_class) {
+void SvgPlot::bottomStrip(double x_low, double x_high, const std::string& css_class) {
   const double low = std::max(x_low, x_low_);
   const double high = std::min(x_high, x_high_);
   if (high <= low) return;
+  constexpr double kHeight = 4.0;
   marks_ += "<rect class=\"" + css_class + "\" x=\"" + px(pixelX(low)) + "\" y=\"" +
-            px(layout_.top) + "\" width=\"" + px(pixelX(high) - pixelX(low)) + "\" height=\"" +
-            px(layout_.height - layout_.top - layout_.bottom) + "\"/>";
+            px(layout_.height - layout_.bottom - kHeight) + "\" width=\"" +
+            px(pixelX(high) - pixelX(low)) + "\" height=\"" + px(kHeight) + "\"/>";
 }
 
 void SvgPlot::polyline(const std::vector<PlotPoint>& points, const std::string& css_class) {

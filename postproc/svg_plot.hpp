@@ -68,8 +68,9 @@ class SvgPlot {
   void axisLabels(const std::string& x_label, const std::string& y_label);
   /// A horizontal band between two y values across the whole data area.
   void band(double y_low, double y_high, const std::string& css_class);
-  /// A vertical band between two x values across the whole data area.
-  void span(double x_low, double x_high, const std::string& css_class);
+  /// A strip 4 px high along the bottom of the data area between two x
+  /// values (marks an interval without covering the data).
+  void bottomStrip(double x_low, double x_high, const std::string& css_class);
   /// Connected line through `points`; nothing for fewer than two.
   void polyline(const std::vector<PlotPoint>& points, const std::string& css_class);
   /// A filled polygon (closed path) through `points`; nothing for fewer than three.

@@ -6,6 +6,10 @@
 #
 #   bash scripts/render_report.sh                 # writes and renders the demo job's report
 #   bash scripts/render_report.sh REPORT.html [OUT.png]
+#
+# TW_REPORT_WINDOW (default 1400,2000) is the window in CSS pixels and
+# TW_REPORT_SCALE (default 1) the device scale factor: 0.6 gives the small
+# picture in docs/report_screenshot.png.
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 report="${1:-}"
@@ -34,6 +38,7 @@ rm -f "$png"
 chromium --headless --no-sandbox --disable-gpu --disable-quic --no-first-run \
   --disable-background-networking --disable-component-update --disable-sync \
   --user-data-dir="$profile" --hide-scrollbars --screenshot="$png" \
+  --force-device-scale-factor="${TW_REPORT_SCALE:-1}" \
   --window-size="${TW_REPORT_WINDOW:-1400,2000}" "file://$(realpath "$report")" 2> "$profile/chromium.log" \
   || { cat "$profile/chromium.log" >&2; exit 1; }
 [[ -s "$png" ]] || { echo "render_report: chromium wrote no PNG" >&2; exit 1; }
