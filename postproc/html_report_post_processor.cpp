@@ -1,7 +1,6 @@
 #include "postproc/html_report_post_processor.hpp"
 
 #include <algorithm>
-#include <cmath>
 #include <nlohmann/json.hpp>
 #include <sstream>
 #include <variant>
@@ -92,6 +91,8 @@ class PageWriter {
   }
 
  private:
+  using ProgramMetadataText = std::vector<std::pair<std::string, std::string>>;
+
   std::string masthead() const {
     const ProgramMetadataText text = metadataText();
     std::string out = "<header class=\"masthead\"><h1>Review report · <span class=\"job\">" +
@@ -101,8 +102,6 @@ class PageWriter {
     }
     return out + "</dl></header>\n";
   }
-
-  using ProgramMetadataText = std::vector<std::pair<std::string, std::string>>;
 
   ProgramMetadataText metadataText() const {
     const planner::ProgramMetadata& meta = program_.metadata;

@@ -91,6 +91,7 @@ std::string oneView(const ViewAxes& axes, const std::vector<TimelineMotion>& tim
     base = flat(cell.X_CB->translation());
     box.offer(*base);
   }
+  if (box.x_low > box.x_high) box.offer({0.0, 0.0});  // nothing to draw: an empty view at the origin
   // A margin of 8 % on every side keeps labels and markers off the frame.
   const double pad = 0.08 * std::max({box.x_high - box.x_low, box.y_high - box.y_low, 1.0});
   PlotLayout layout;

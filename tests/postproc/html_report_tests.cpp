@@ -343,6 +343,15 @@ TEST_CASE("Without cell geometry the views say what they cannot show", "[html-re
   CHECK(elementsWithClass(*with_base.root, "base-mark").size() == 3);
 }
 
+TEST_CASE("A program without records still gives a well-formed page", "[html-report]") {
+  Program program = test::sampleProgram();
+  program.records.clear();
+  const ParsedReport report(reportText(program));
+  CHECK(elementsWithClass(*report.root, "joint-plot").empty());
+  CHECK(elementsWithClass(*report.root, "view").size() == 3);
+  CHECK_THAT(allText(*report.root), Catch::Contains("The program holds no motions."));
+}
+
 TEST_CASE("The review report refuses a cell it cannot draw and writes nothing", "[html-report]") {
   const test::DemoReportJob job = test::demoReportJob();
   WriteOptions options = demoOptions(job);
