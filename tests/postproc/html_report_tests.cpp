@@ -297,6 +297,23 @@ TEST_CASE("The review report carries the caution, the hashes, the warnings and e
   CHECK(rows == static_cast<int>(program.records.size()));
 }
 
+TEST_CASE("A joint near its limit shows the warning band and its warning marks", "[html-report]") {
+  // axis_5 ends at 60° of its ±125° (sample_program.cpp): 65° from the
+  // limit, so a 70° margin puts the home move (outside the seam) within it;
+  // no other joint and no seam motion comes within 70° of a limit.
+  WriteOptions options;
+  options.revolute_limit_warning = 70.0 * WriteOptions::kDegree;
+  const Program program = test::sampleProgram();
+  const ParsedReport report(reportText(program, options));
+  for (const tinyxml2::XMLElement* svg : elementsWithClass(*report.root, "joint-plot")) {
+    const std::string joint = attribute(*svg, "data-joint");
+    CAPTURE(joint, attribute(*svg, "data-scope"));
+    const bool near_limit = joint == "axis_5" && attribute(*svg, "data-scope") == "program";
+    CHECK(elementsWithClass(*svg, "band-near").empty() != near_limit);
+    CHECK(elementsWithClass(*svg, "warning-mark").empty() != near_limit);
+  }
+}
+
 TEST_CASE("The views of the demo job draw its cell, arm base, TCP path and seams",
           "[html-report]") {
   const test::DemoReportJob job = test::demoReportJob();
