@@ -132,7 +132,7 @@ std::string oneView(const ViewAxes& axes, const std::vector<TimelineMotion>& tim
   }
   if (!path.empty()) {
     plot.dot(path.front(), 3.5, "path-start");
-    plot.text(path.front(), 6.0, -6.0, "start", "path-label");
+    plot.text(path.front(), 6.0, -6.0, "first target", "path-label");
   }
   std::vector<std::string> labelled;
   for (std::size_t i = 0; i < timeline.size(); ++i) {

@@ -346,7 +346,10 @@ TEST_CASE("The views of the demo job draw its cell, arm base, TCP path and seams
 }
 
 TEST_CASE("Without cell geometry the views say what they cannot show", "[html-report]") {
-  const ParsedReport report(reportText(test::sampleProgram()));
+  const std::string text = reportText(test::sampleProgram());
+  // Kept for a look in a browser: the page as the command line will first write it.
+  test::writeWholeFile(std::string(TW_TEST_OUTPUT_DIR) + "/sample_program_report.html", text);
+  const ParsedReport report(text);
   const std::string page_text = allText(*report.root);
   CHECK_THAT(page_text, Catch::Contains("No cell geometry was given") &&
                             Catch::Contains("(fixture_a)"));
