@@ -1,5 +1,6 @@
 #include <memory>
 
+#include "postproc/html_report_post_processor.hpp"
 #include "postproc/joint_table_post_processor.hpp"
 #include "postproc/motion_text_post_processor.hpp"
 #include "postproc/post_processor_registry.hpp"
@@ -13,6 +14,7 @@ void registerBuiltInPostProcessors(PostProcessorRegistry& registry) {
   registry.add(std::make_unique<JointTablePostProcessor>());
   registry.add(std::make_unique<SummaryPostProcessor>());
   registry.add(std::make_unique<TemplatePostProcessor>());
+  registry.add(std::make_unique<HtmlReportPostProcessor>());
 }
 
 }  // namespace tw::postproc

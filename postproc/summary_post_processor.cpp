@@ -8,6 +8,7 @@
 
 #include "kinematics/input_error.hpp"
 #include "postproc/file_quantities.hpp"
+#include "postproc/review_warnings.hpp"
 #include "postproc/safety_caution.hpp"
 
 namespace tw::postproc {
@@ -116,49 +117,14 @@ class SummaryBuilder {
   }
 
   std::vector<std::string> warnings() const {
-    std::vector<std::string> result = program_.warnings;
-    for (std::size_t i = 0; i < program_.records.size(); ++i) {
-      const auto* motion = std::get_if<MotionRecord>(&program_.records[i]);
-      if (!motion) continue;
-      const std::string where = "record " + std::to_string(i + 1) +
-                                (motion->seam.empty() ? "" : " (" + motion->seam + ")") + ": ";
-      if (motion->speed.kind == planner::SpeedKind::kTcpSpeed &&
-          motion->speed.value > kReducedSpeedLimit) {
-        result.push_back(where + "TCP speed " + withUnit(quantities_.speed, motion->speed.value) +
-                         " is above the reduced-speed limit of " +
-                         withUnit(quantities_.speed, kReducedSpeedLimit) +
-                         "; it cannot be verified at reduced speed without scaling");
-      }
-      if (motion->clearance && *motion->clearance < options_.clearance_warning) {
-        result.push_back(where + "clearance " + withUnit(quantities_.length, *motion->clearance) +
-                         " is below " + withUnit(quantities_.length, options_.clearance_warning));
-      }
-      if (motion->singularity_margin && *motion->singularity_margin < options_.singularity_warning) {
-        result.push_back(where + "singularity margin " +
-                         withUnit(quantities_.angle, *motion->singularity_margin) + " is below " +
-                         withUnit(quantities_.angle, options_.singularity_warning));
-      }
-      const kinematics::JointVector margins = planner::jointLimitMargins(program_.metadata, motion->q);
-      for (int j = 0; j < margins.size(); ++j) {
-        const planner::ProgramJoint& joint = program_.metadata.joints[j];
-        const bool revolute = joint.type == kinematics::JointType::kRevolute;
-        const double limit =
-            revolute ? options_.revolute_limit_warning : options_.prismatic_limit_warning;
-        if (margins[j] < limit) {
-          const QuantityFormat& format = quantities_.joint(joint.type);
-          result.push_back(where + "joint " + joint.name + " is " + withUnit(format, margins[j]) +
-                           " from its limit, less than " + withUnit(format, limit));
-        }
-      }
+    std::vector<std::string> result;
+    for (const ReviewWarning& warning : reviewWarnings(program_, options_)) {
+      result.push_back(warning.text);
     }
     return result;
   }
 
  private:
-  static std::string withUnit(const QuantityFormat& format, double si_value) {
-    return format.format(si_value) + ' ' + format.unit;
-  }
-
   /// {"value": v, "record": n} or null; `scale` turns a relative minimum
   /// back into the quantity.
   static ordered_json located(const Minimum& minimum, const QuantityFormat& format,

@@ -2,6 +2,8 @@
 
 #include <string>
 
+#include "postproc/report_cell.hpp"
+
 namespace tw::postproc {
 
 /// Choices a caller may make when writing; every field has a default that
@@ -22,6 +24,9 @@ struct WriteOptions {
   double singularity_warning = 10.0 * kDegree;         ///< [rad]
   double revolute_limit_warning = 5.0 * kDegree;       ///< [rad]
   double prismatic_limit_warning = 0.010;              ///< [m]
+  /// Review report: cell geometry for the top, front and side views (frame
+  /// poses, arm base, obstacle triangles); empty draws the TCP path only.
+  ReportCell report_cell;
 };
 
 }  // namespace tw::postproc
