@@ -12,7 +12,6 @@
 #include <ompl/geometric/planners/kpiece/LBKPIECE1.h>
 #include <ompl/geometric/planners/prm/PRM.h>
 #include <ompl/geometric/planners/rrt/BiTRRT.h>
-#include <ompl/geometric/planners/rrt/RRT.h>
 #include <ompl/geometric/planners/rrt/RRTConnect.h>
 #include <ompl/util/Console.h>
 #include <ompl/util/RandomNumbers.h>
@@ -75,7 +74,6 @@ void checkPlannerName(const std::string& name) {
 
 /// Precondition: checkPlannerName(name) passed.
 ob::PlannerPtr makePlanner(const std::string& name, const ob::SpaceInformationPtr& si) {
-  if (name == "RRT") return std::make_shared<og::RRT>(si);
   if (name == "PRM") return std::make_shared<og::PRM>(si);
   if (name == "BiTRRT") return std::make_shared<og::BiTRRT>(si);
   if (name == "KPIECE1") return std::make_shared<og::KPIECE1>(si);
@@ -159,8 +157,8 @@ const char* toString(TransitOutcome outcome) {
 }
 
 const std::vector<std::string>& transitPlannerNames() {
-  static const std::vector<std::string> names = {"RRTConnect", "RRT",     "PRM",
-                                                 "BiTRRT",     "KPIECE1", "LBKPIECE1"};
+  static const std::vector<std::string> names = {"RRTConnect", "PRM", "BiTRRT", "KPIECE1",
+                                                 "LBKPIECE1"};
   return names;
 }
 
