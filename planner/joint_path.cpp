@@ -1,0 +1,45 @@
+#include "planner/joint_path.hpp"
+
+#include "planner/report_text.hpp"
+
+namespace tw::planner {
+
+double jointPathLength(const JointPath& path) {
+  double length = 0.0;
+  for (std::size_t i = 1; i < path.size(); ++i) length += (path[i] - path[i - 1]).norm();
+  return length;
+}
+
+std::optional<PathCheckFailure> recheckPath(const collision::CollisionWorld& world,
+                                            const JointPath& path,
+                                            collision::CollisionWorkspace& workspace) {
+  if (path.empty()) return PathCheckFailure{-1, "the path has no waypoint"};
+  const kinematics::ArmModel& arm = world.arm();
+  for (std::size_t i = 0; i < path.size(); ++i) {
+    if (path[i].size() != arm.jointCount() || !arm.withinLimits(path[i])) {
+      return PathCheckFailure{static_cast<int>(i) - (i > 0 ? 1 : 0),
+                              "waypoint " + std::to_string(i) +
+                                  " has the wrong joint count or is outside the joint limits"};
+    }
+  }
+  if (path.size() == 1) {
+    const collision::StateResult state = world.checkState(path.front(), workspace);
+    if (state.valid()) return std::nullopt;
+    return PathCheckFailure{-1, "the only waypoint is invalid: " + world.bodyName(state.body_a) +
+                                    " against " + world.bodyName(state.body_b)};
+  }
+  for (std::size_t i = 0; i + 1 < path.size(); ++i) {
+    const collision::SegmentResult segment = world.checkSegment(path[i], path[i + 1], workspace);
+    if (!segment.valid()) {
+      return PathCheckFailure{
+          static_cast<int>(i),
+          "segment " + std::to_string(i) + " is invalid at fraction " +
+              formatDecimal(segment.fraction, 4) + ": " +
+              world.bodyName(segment.state.body_a) + " against " +
+              world.bodyName(segment.state.body_b) + " (" + collision::toString(segment.state.status) + ")"};
+    }
+  }
+  return std::nullopt;
+}
+
+}  // namespace tw::planner
