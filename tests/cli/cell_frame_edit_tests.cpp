@@ -48,12 +48,11 @@ TEST_CASE("Rewriting one frame's pose changes only that frame's line", "[cell-ed
                                      "xyz=\"-125.0000 -60.0000 0.0000\" "
                                      "rpy=\"0.000000 0.000000 3.000000\"/>"));
 
-  const std::string path = test::writeOutputFile("edit_bracket.xml", edited);
+  const std::string path = test::writeTestFile("edit_bracket.xml", edited);
   const planner::Cell cell = planner::loadCell(path);
   // Written to 0.1 µm and 1e-6 deg: that is how close the reloaded pose is.
   CHECK(cell.frames.X_PF("bracket").isApprox(X_PF, 1e-7));
-  const planner::Cell before =
-      planner::loadCell(test::writeOutputFile("edit_before.xml", original));
+  const planner::Cell before = planner::loadCell(test::writeTestFile("edit_before.xml", original));
   for (const std::string& name : before.frames.names()) {
     if (name == "bracket") continue;
     CAPTURE(name);
@@ -70,8 +69,7 @@ TEST_CASE("A frame written with a quaternion keeps a quaternion", "[cell-edit]")
   CHECK_THAT(edited, Catch::Contains("xyz=\"310.0000 -690.5000 1.2500\" "
                                      "quaternion=\"0.500000000 0.000000000 0.000000000 "
                                      "0.866025404\""));
-  const planner::Cell cell =
-      planner::loadCell(test::writeOutputFile("edit_quaternion.xml", edited));
+  const planner::Cell cell = planner::loadCell(test::writeTestFile("edit_quaternion.xml", edited));
   // 9 decimals of a unit quaternion: rotations agree to about 1e-9.
   CHECK(cell.frames.X_PF("cleaning-station").isApprox(X_PF, 1e-8));
 }
@@ -82,7 +80,7 @@ TEST_CASE("A frame without pose attributes gets them appended to its tag", "[cel
   const std::string edited = cellTextWithFramePose(original, "cell.xml", "arm-base", X_PF);
   CHECK_THAT(edited, Catch::Contains("<frame name=\"arm-base\" parent=\"world\" xyz=\"1.0000 "
                                      "2.0000 3.0000\" rpy=\"10.000000 -20.000000 30.000000\"/>"));
-  const planner::Cell cell = planner::loadCell(test::writeOutputFile("edit_append.xml", edited));
+  const planner::Cell cell = planner::loadCell(test::writeTestFile("edit_append.xml", edited));
   CHECK(cell.frames.X_PF("arm-base").isApprox(X_PF, 1e-7));  // written to 0.1 µm, 1e-6 deg
 }
 

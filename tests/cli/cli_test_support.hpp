@@ -9,7 +9,12 @@
 #include <stdexcept>
 #include <string>
 
+#include "tests/planner/test_files.hpp"
+
 namespace tw::cli::test {
+
+/// Scratch files under TW_TEST_OUTPUT_DIR, as in the planner tests.
+using planner::test::writeTestFile;
 
 /// What one run of the built `tracewright` printed and returned.
 struct ToolRun {
@@ -41,15 +46,6 @@ inline std::string readText(const std::string& path) {
   std::ostringstream text;
   text << input.rdbuf();
   return text.str();
-}
-
-/// Writes `text` to TW_TEST_OUTPUT_DIR/name and returns the path.
-inline std::string writeOutputFile(const std::string& name, const std::string& text) {
-  const std::string path = std::string(TW_TEST_OUTPUT_DIR) + "/" + name;
-  std::ofstream output(path, std::ios::binary);
-  output << text;
-  if (!output) throw std::runtime_error("cannot write " + path);
-  return path;
 }
 
 /// The text of the sample welding cell with its arm file named by absolute

@@ -95,7 +95,7 @@ TEST_CASE("compare and table refuse a damaged file with its file and line",
   const std::string a = writeMotionText("damaged_a.twm", test::programA());
   std::string text = test::readText(a);
   text.replace(text.find("joints=10.0000"), 14, "joints=11.0000");  // an edit the hash catches
-  const std::string damaged = test::writeOutputFile("damaged_b.twm", text);
+  const std::string damaged = test::writeTestFile("damaged_b.twm", text);
   const test::ToolRun compare = runTool("compare " + quoted(a) + " " + quoted(damaged));
   CAPTURE(compare.output);
   CHECK(compare.exit_code == 2);

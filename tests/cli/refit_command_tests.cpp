@@ -17,7 +17,7 @@ const std::string kSamplePoints = "samples/fixture_moved/bracket_reference_point
 
 /// A copy of the sample cell under the test output folder, loadable from there.
 std::string cellCopy(const std::string& name) {
-  return test::writeOutputFile(name, test::sampleCellText());
+  return test::writeTestFile(name, test::sampleCellText());
 }
 
 /// The sample points with the measured x of point `name` shifted by `shift_mm`.
@@ -36,7 +36,7 @@ std::string pointsWithShift(const std::string& file, const std::string& name, do
     }
     out += line + "\n";
   }
-  return test::writeOutputFile(file, out);
+  return test::writeTestFile(file, out);
 }
 
 }  // namespace
@@ -106,7 +106,7 @@ TEST_CASE("refit measured in the world frame gives the same fixture pose", "[cli
     }
     out += line + "\n";
   }
-  const std::string points = test::writeOutputFile("refit_world_points.csv", out);
+  const std::string points = test::writeTestFile("refit_world_points.csv", out);
   const std::string cell = cellCopy("refit_world.xml");
   const test::ToolRun table =
       runTool("refit '" + cell + "' --frame bracket --points " + kSamplePoints);
@@ -145,7 +145,7 @@ TEST_CASE("refit warns about a residual above the tolerance and then refuses to 
 }
 
 TEST_CASE("refit with 3 points works and warns that the fit is barely checked", "[cli][refit]") {
-  const std::string points = test::writeOutputFile(
+  const std::string points = test::writeTestFile(
       "refit_three.csv",
       "point,nominal_x_mm,nominal_y_mm,nominal_z_mm,measured_x_mm,measured_y_mm,measured_z_mm\n"
       "A,0,0,0,-150,-60,0\nB,300,0,0,150,-60,0\nC,0,120,8,-150,60,8\n");
@@ -166,9 +166,9 @@ TEST_CASE("refit refuses bad input with exit code 2 and writes nothing", "[cli][
     std::string arguments;
     std::string message;
   };
-  const std::string bad_number = test::writeOutputFile(
+  const std::string bad_number = test::writeTestFile(
       "refit_bad_number.csv", header + "A,0,0,0,1,2,3\nB,1,0,0,x,0,0\nC,0,1,0,0,1,0\n");
-  const std::string collinear = test::writeOutputFile(
+  const std::string collinear = test::writeTestFile(
       "refit_collinear.csv", header + "A,0,0,0,0,0,0\nB,1,0,0,1,0,0\nC,2,0,0,2,0,0\n");
   const std::vector<Case> cases = {
       {"--frame bracket --points '" + bad_number + "'", bad_number + ":3: column 'measured_x_mm'"},
