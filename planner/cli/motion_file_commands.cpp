@@ -431,10 +431,12 @@ void addMotionFileCommands(CLI::App& app, int& exit_code) {
                    "auto (colour only when printing to a terminal), always or never")
       ->check(CLI::IsMember({"auto", "always", "never"}))
       ->capture_default_str();
-  table_command->add_option("--csv", table->csv,
-                            "Write the joint-table CSV (all columns) to this file instead");
-  table_command->add_option("--sample-period", table->sample_period,
-                            "With --csv: also an interpolated row every this many seconds");
+  CLI::Option* csv = table_command->add_option(
+      "--csv", table->csv, "Write the joint-table CSV (all columns) to this file instead");
+  table_command
+      ->add_option("--sample-period", table->sample_period,
+                   "With --csv: also an interpolated row every this many seconds")
+      ->needs(csv);
   table_command->callback([table, &exit_code] { exit_code = runTable(*table); });
 }
 

@@ -152,6 +152,23 @@ TEST_CASE("table --csv writes the joint-table post-processor's file", "[cli][tab
   postproc::JointTablePostProcessor().write(postproc::readMotionTextFile(a),
                                             postproc::WriteOptions{}, expected);
   CHECK(test::readText(csv) == expected.str());
+
+  SECTION("with samples") {
+    const std::string sampled = std::string(TW_TEST_OUTPUT_DIR) + "/table_sampled.csv";
+    CHECK(runTool("table " + quoted(a) + " --csv " + quoted(sampled) + " --sample-period 0.5")
+              .exit_code == 0);
+    CHECK_THAT(test::readText(sampled), Catch::Contains(",sample,"));
+  }
+  SECTION("a sample period without --csv, or below 1 ms, is refused with nothing written") {
+    CHECK(runTool("table " + quoted(a) + " --sample-period 0.5").exit_code == 2);
+    const std::string fine = std::string(TW_TEST_OUTPUT_DIR) + "/table_too_fine.csv";
+    std::filesystem::remove(fine);
+    const test::ToolRun run =
+        runTool("table " + quoted(a) + " --csv " + quoted(fine) + " --sample-period 0.0001");
+    CAPTURE(run.output);
+    CHECK(run.exit_code == 2);
+    CHECK_FALSE(std::filesystem::exists(fine));
+  }
 }
 
 TEST_CASE("posts lists every registered post-processor", "[cli][posts]") {
