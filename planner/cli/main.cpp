@@ -6,12 +6,18 @@
 #include "kinematics/input_error.hpp"
 #include "planner/cli/exit_codes.hpp"
 #include "planner/cli/kinematics_commands.hpp"
+#include "planner/cli/motion_file_commands.hpp"
+#include "planner/cli/posts_command.hpp"
+#include "planner/cli/refit_command.hpp"
 
 int main(int argc, char** argv) {
   CLI::App app{"tracewright: offline path planning and program generation for 6-axis arms"};
   app.require_subcommand(1);
   int exit_code = tw::cli::kExitOk;
   tw::cli::addKinematicsCommands(app, exit_code);
+  tw::cli::addRefitCommand(app, exit_code);
+  tw::cli::addMotionFileCommands(app, exit_code);
+  tw::cli::addPostsCommand(app, exit_code);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& error) {
