@@ -7,6 +7,7 @@
 #include "planner/cli/exit_codes.hpp"
 #include "planner/cli/kinematics_commands.hpp"
 #include "planner/cli/motion_file_commands.hpp"
+#include "planner/cli/plan_commands.hpp"
 #include "planner/cli/posts_command.hpp"
 #include "planner/cli/refit_command.hpp"
 
@@ -14,6 +15,7 @@ int main(int argc, char** argv) {
   CLI::App app{"tracewright: offline path planning and program generation for 6-axis arms"};
   app.require_subcommand(1);
   int exit_code = tw::cli::kExitOk;
+  tw::cli::addPlanCommands(app, exit_code);
   tw::cli::addKinematicsCommands(app, exit_code);
   tw::cli::addRefitCommand(app, exit_code);
   tw::cli::addMotionFileCommands(app, exit_code);

@@ -1,0 +1,243 @@
+#include "planner/cli/plan_commands.hpp"
+
+#include <unistd.h>
+
+#include <cmath>
+#include <cstdio>
+#include <filesystem>
+#include <iostream>
+#include <memory>
+#include <nlohmann/json.hpp>
+#include <string>
+
+#include "kinematics/input_error.hpp"
+#include "planner/cli/exit_codes.hpp"
+#include "planner/job_loader.hpp"
+#include "planner/job_planner.hpp"
+#include "planner/report_text.hpp"
+#include "postproc/atomic_file.hpp"
+#include "postproc/post_processor_registry.hpp"
+#include "postproc/safety_caution.hpp"
+
+namespace tw::cli {
+namespace {
+
+using planner::PlanResult;
+
+struct PlanArguments {
+  std::string job_path;
+  std::string output_directory;
+  int threads = 2;
+  unsigned seed = 0;
+  bool json = false;
+  std::string planner = "RRTConnect";
+};
+
+/// Stage messages on stderr, only when a person is watching it.
+void progress(const char* stage) {
+  if (isatty(STDERR_FILENO)) std::fprintf(stderr, "\r\033[K%s", stage);
+}
+
+void endProgress() {
+  if (isatty(STDERR_FILENO)) std::fprintf(stderr, "\r\033[K");
+}
+
+std::string millimetres(double metres) { return planner::formatDecimal(metres * 1000.0, 1); }
+
+/// Prints why the job cannot be run: every infeasible seam's report and
+/// every failed transit.
+void printInfeasible(const PlanResult& result) {
+  for (const planner::SeamReport* report : result.seams.reports()) {
+    std::printf("%s\n", report->text().c_str());
+  }
+  for (const planner::TransitFailure& failure : result.transit_failures) {
+    std::printf("transit from %s to %s: %s (%s, planner %s)\n", failure.from.c_str(),
+                failure.to.c_str(), planner::toString(failure.result.outcome),
+                failure.result.reason.c_str(), failure.result.planner.c_str());
+  }
+  std::printf("no program written: the job is infeasible as it stands\n");
+}
+
+/// Cycle time and minimum clearance per seam and in total, from the program.
+void printSummary(const planner::Program& program, const std::vector<std::string>& written) {
+  struct SeamLine {
+    double start = 0.0, end = 0.0, clearance = INFINITY;
+    int moves = 0;
+    std::string branch;
+  };
+  std::vector<std::pair<std::string, SeamLine>> seams;
+  double min_clearance = INFINITY;
+  for (const planner::ProgramRecord& record : program.records) {
+    const planner::MotionRecord* motion = std::get_if<planner::MotionRecord>(&record);
+    if (motion == nullptr) continue;
+    if (motion->clearance) min_clearance = std::min(min_clearance, *motion->clearance);
+    if (motion->seam.empty()) continue;
+    if (seams.empty() || seams.back().first != motion->seam) {
+      seams.push_back({motion->seam, SeamLine{motion->start_time, 0.0, INFINITY, 0, motion->branch}});
+    }
+    SeamLine& line = seams.back().second;
+    line.end = motion->start_time + motion->duration;
+    ++line.moves;
+    if (motion->clearance) line.clearance = std::min(line.clearance, *motion->clearance);
+  }
+  std::printf("%-20s %6s %9s %14s  %s\n", "seam", "moves", "time [s]", "clearance [mm]", "branch");
+  for (const auto& [name, line] : seams) {
+    std::printf("%-20s %6d %9s %14s  %s\n", name.c_str(), line.moves,
+                planner::formatDecimal(line.end - line.start, 2).c_str(),
+                std::isfinite(line.clearance) ? millimetres(line.clearance).c_str() : "-",
+                line.branch.c_str());
+  }
+  std::printf("cycle time %s s (estimate), minimum clearance %s mm, %zu warning(s)\n",
+              planner::formatDecimal(planner::cycleTime(program), 2).c_str(),
+              std::isfinite(min_clearance) ? millimetres(min_clearance).c_str() : "-",
+              program.warnings.size());
+  for (const std::string& warning : program.warnings) std::printf("  warning: %s\n", warning.c_str());
+  for (const std::string& path : written) std::printf("wrote %s\n", path.c_str());
+  std::printf("%s\n", postproc::safetyCaution(program).front().c_str());
+}
+
+nlohmann::json resultJson(const PlanResult& result, const std::vector<std::string>& written) {
+  nlohmann::json json;
+  json["feasible"] = result.feasible();
+  json["infeasible_seams"] = nlohmann::json::array();
+  for (const planner::SeamReport* report : result.seams.reports()) {
+    json["infeasible_seams"].push_back({{"seam", report->name}, {"report", report->text()}});
+  }
+  json["failed_transits"] = nlohmann::json::array();
+  for (const planner::TransitFailure& failure : result.transit_failures) {
+    json["failed_transits"].push_back({{"from", failure.from},
+                                       {"to", failure.to},
+                                       {"outcome", planner::toString(failure.result.outcome)},
+                                       {"reason", failure.result.reason}});
+  }
+  if (result.program) {
+    json["cycle_time_s"] = planner::cycleTime(*result.program);
+    json["records"] = result.program->records.size();
+    json["warnings"] = result.program->warnings;
+  }
+  json["written"] = written;
+  return json;
+}
+
+/// Writes every output of the job; all are produced before any is renamed
+/// into place would be better still, but each file on its own is atomic.
+std::vector<std::string> writeOutputs(const planner::Job& job, const planner::Program& program,
+                                      const std::string& directory_override) {
+  postproc::PostProcessorRegistry registry;
+  postproc::registerBuiltInPostProcessors(registry);
+  // Check every writer name before writing anything, so that a bad job
+  // leaves no partial set of outputs behind.
+  for (const planner::OutputRequest& request : job.outputs) {
+    if (!registry.contains(request.writer)) {
+      throw InputError(job.source, request.line,
+                       "<output writer=\"" + request.writer + "\">: unknown post-processor");
+    }
+    if (request.writer == "template") {
+      throw InputError(job.source, request.line,
+                       "<output writer=\"template\">: job files cannot name a template file yet");
+    }
+  }
+  const std::filesystem::path directory =
+      directory_override.empty() ? job.output_directory : directory_override;
+  std::filesystem::create_directories(directory);
+  std::vector<std::string> written;
+  for (const planner::OutputRequest& request : job.outputs) {
+    const std::filesystem::path path = directory / request.path;
+    postproc::WriteOptions options;
+    options.output_name = path.string();
+    postproc::writeProgramFile(registry.get(request.writer), program, options, path);
+    written.push_back(path.string());
+  }
+  return written;
+}
+
+int runPlan(const PlanArguments& arguments) {
+  progress("loading the job");
+  const planner::Job job = planner::loadJob(arguments.job_path);
+  planner::PlanOptions options;
+  options.solver.threads = arguments.threads;
+  options.transit_planner = arguments.planner;
+  if (arguments.seed > 0) options.seed = arguments.seed;
+  progress("solving seams and planning transits");
+  const PlanResult result = planner::planJob(job, options);
+  std::vector<std::string> written;
+  if (result.feasible()) {
+    progress("writing outputs");
+    written = writeOutputs(job, *result.program, arguments.output_directory);
+  }
+  endProgress();
+  if (arguments.json) {
+    std::cout << resultJson(result, written).dump(2) << "\n";
+  } else if (result.feasible()) {
+    printSummary(*result.program, written);
+  } else {
+    printInfeasible(result);
+  }
+  return result.feasible() ? kExitOk : kExitInfeasible;
+}
+
+int runCheck(const PlanArguments& arguments) {
+  const planner::Job job = planner::loadJob(arguments.job_path);
+  planner::SeamSolverOptions options;
+  options.threads = arguments.threads;
+  const planner::JobSolution solution = planner::solveJob(job, options);
+  if (arguments.json) {
+    nlohmann::json json;
+    json["feasible"] = solution.feasible();
+    json["tasks"] = nlohmann::json::array();
+    for (const planner::SeamOutcome& outcome : solution.tasks) {
+      if (const planner::SolvedSeam* seam = std::get_if<planner::SolvedSeam>(&outcome)) {
+        json["tasks"].push_back({{"seam", seam->name},
+                                 {"reachable", true},
+                                 {"waypoints", seam->waypoints.size()},
+                                 {"branch", seam->branch.toString()}});
+      } else {
+        const planner::SeamReport& report = std::get<planner::SeamReport>(outcome);
+        json["tasks"].push_back({{"seam", report.name}, {"reachable", false}, {"report", report.text()}});
+      }
+    }
+    std::cout << json.dump(2) << "\n";
+  } else {
+    for (const planner::SeamOutcome& outcome : solution.tasks) {
+      if (const planner::SolvedSeam* seam = std::get_if<planner::SolvedSeam>(&outcome)) {
+        std::printf("%-20s reachable: %zu waypoints, %s, axis 5 at least %s deg from 0\n",
+                    seam->name.c_str(), seam->waypoints.size(), seam->branch.toString().c_str(),
+                    planner::formatDecimal(seam->min_wrist_angle * 180.0 / 3.14159265358979323846, 1).c_str());
+      } else {
+        std::printf("%s\n", std::get<planner::SeamReport>(outcome).text().c_str());
+      }
+    }
+    std::printf(solution.feasible() ? "every seam is reachable (transits not checked)\n"
+                                    : "some seams cannot be run as they stand\n");
+  }
+  return solution.feasible() ? kExitOk : kExitInfeasible;
+}
+
+}  // namespace
+
+void addPlanCommands(CLI::App& app, int& exit_code) {
+  auto plan = std::make_shared<PlanArguments>();
+  CLI::App* plan_command = app.add_subcommand(
+      "plan", "Plan a job: solve every seam, plan the transits, time the program, write its outputs");
+  plan_command->add_option("job", plan->job_path, "Job file")->required();
+  plan_command->add_option("--output", plan->output_directory,
+                           "Folder for the outputs (default: the job's <outputs directory>)");
+  plan_command->add_option("--threads", plan->threads, "Seams solved at once (results do not depend on it)")
+      ->check(CLI::Range(1, 64));
+  plan_command->add_option("--seed", plan->seed, "Seed of the transit planner (default: the job's)")
+      ->check(CLI::Range(1u, 4294967295u));
+  plan_command->add_option("--planner", plan->planner, "Transit planner (OMPL name)")
+      ->check(CLI::IsMember(planner::transitPlannerNames()));
+  plan_command->add_flag("--json", plan->json, "Print a machine-readable result on stdout");
+  plan_command->callback([plan, &exit_code] { exit_code = runPlan(*plan); });
+
+  auto check = std::make_shared<PlanArguments>();
+  CLI::App* check_command = app.add_subcommand(
+      "check", "Check a job's inputs and the reachability of every seam, without transits or outputs");
+  check_command->add_option("job", check->job_path, "Job file")->required();
+  check_command->add_option("--threads", check->threads, "Seams solved at once")->check(CLI::Range(1, 64));
+  check_command->add_flag("--json", check->json, "Print a machine-readable result on stdout");
+  check_command->callback([check, &exit_code] { exit_code = runCheck(*check); });
+}
+
+}  // namespace tw::cli

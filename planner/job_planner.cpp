@@ -1,0 +1,280 @@
+#include "planner/job_planner.hpp"
+
+#include <algorithm>
+#include <charconv>
+#include <cmath>
+#include <map>
+#include <memory>
+#include <set>
+
+#include "collision/collision_workspace.hpp"
+#include "kinematics/forward_kinematics.hpp"
+#include "kinematics/input_error.hpp"
+#include "kinematics/singularity.hpp"
+#include "planner/cell_collision_world.hpp"
+#include "planner/joint_trajectory.hpp"
+#include "planner/program/sha256.hpp"
+
+namespace tw::planner {
+namespace {
+
+using kinematics::JointVector;
+
+constexpr const char* kWorldFrame = "world";
+
+/// A speed [m/s] as mm/s with one decimal, independent of the locale.
+std::string millimetresPerSecond(double speed) {
+  char text[32];
+  const std::to_chars_result written =
+      std::to_chars(text, text + sizeof text, speed * 1000.0, std::chars_format::fixed, 1);
+  return std::string(text, written.ptr);
+}
+
+/// Every file the program depends on, sorted and without repeats.
+std::vector<InputFileHash> inputHashes(const Job& job) {
+  std::set<std::string> paths{job.source, job.cell.source, job.cell.arm.source()};
+  for (const JobTask& task : job.tasks) {
+    if (const SeamSpec* seam = std::get_if<SeamSpec>(&task)) paths.insert(seam->points.source);
+  }
+  const auto add_meshes = [&](const std::vector<kinematics::LinkShape>& shapes) {
+    for (const kinematics::LinkShape& shape : shapes) {
+      if (shape.kind == kinematics::LinkShape::Kind::kMesh) paths.insert(shape.mesh_path);
+    }
+  };
+  for (const kinematics::LinkGeometry& link : job.cell.arm.links()) add_meshes(link.shapes);
+  for (const Tool& tool : job.cell.tools) add_meshes(tool.shapes);
+  for (const CellBody& body : job.cell.bodies) add_meshes(body.shapes);
+  std::vector<InputFileHash> hashes;
+  for (const std::string& path : paths) {
+    if (!path.empty()) hashes.push_back({path, sha256OfFile(path)});
+  }
+  return hashes;
+}
+
+/// Builds the records of one program in order, keeping the clock.
+class ProgramBuilder {
+ public:
+  ProgramBuilder(const Job& job, const PlanOptions& options, Program& program)
+      : job_(job), options_(options), program_(program), X_WB_(job.cell.frames.X_W(job.cell.arm_frame)) {}
+
+  double now() const { return clock_; }
+
+  /// Fills branch words, clearance and singularity margin, then appends.
+  void addMotion(MotionRecord record, const collision::CollisionWorld& world,
+                 collision::CollisionWorkspace& workspace) {
+    record.start_time = clock_;
+    clock_ += record.duration;
+    const kinematics::SingularityMeasures measures =
+        kinematics::singularityMeasures(job_.cell.arm, record.q);
+    if (measures.wrist) record.singularity_margin = *measures.wrist;
+    if (options_.measure_clearance) {
+      // Infinite when the world checks no pair at all: nothing to report.
+      const double distance = world.clearance(record.q, workspace).distance;
+      if (std::isfinite(distance)) record.clearance = distance;
+    }
+    program_.records.push_back(std::move(record));
+  }
+
+  void addEvent(ProcessEventKind kind, const std::string& set, const std::string& seam) {
+    ProcessEvent event;
+    event.kind = kind;
+    event.parameter_set = set;
+    event.seam = seam;
+    event.time = clock_;
+    program_.records.push_back(event);
+  }
+
+  /// The TCP pose of `q` in the world, for moves outside seams.
+  Eigen::Isometry3d worldTcp(const JointVector& q, const Tool& tool) const {
+    return X_WB_ * kinematics::flangePose(job_.cell.arm, q) * tool.X_FT;
+  }
+
+ private:
+  const Job& job_;
+  const PlanOptions& options_;
+  Program& program_;
+  Eigen::Isometry3d X_WB_;
+  double clock_ = 0.0;
+};
+
+/// Duration of a linear move at `speed` [m/s], no shorter than the slowest
+/// joint needs at its maximum velocity nor than the rotation needs at the
+/// orientation speed. The joint bound uses the joint change between the two
+/// targets, a lower bound on what the move needs.
+struct LinearTiming {
+  double duration = 0.0;
+  bool joint_limited = false;
+  int joint = -1;
+};
+
+LinearTiming timeLinear(const kinematics::ArmModel& arm, const JointVector& from,
+                        const JointVector& to, const Eigen::Isometry3d& X_from,
+                        const Eigen::Isometry3d& X_to, double speed, double orientation_speed) {
+  const double distance = (X_to.translation() - X_from.translation()).norm();
+  const double angle = Eigen::AngleAxisd(X_from.linear().transpose() * X_to.linear()).angle();
+  LinearTiming timing;
+  timing.duration = std::max(distance / speed, angle / orientation_speed);
+  for (int j = 0; j < arm.jointCount(); ++j) {
+    const double needed = std::abs(to[j] - from[j]) / arm.joint(j).max_velocity;
+    if (needed > timing.duration) {
+      timing.duration = needed;
+      timing.joint_limited = true;
+      timing.joint = j;
+    }
+  }
+  return timing;
+}
+
+const Tool& toolOf(const Job& job, const std::string& name) {
+  const Tool* tool = job.cell.findTool(name);
+  if (tool == nullptr) throw InputError(job.source, 0, "unknown tool '" + name + "'");
+  return *tool;
+}
+
+}  // namespace
+
+PlanResult planJob(const Job& job, const PlanOptions& options) {
+  PlanResult result;
+  result.seams = solveJob(job, options.solver, options.collision);
+  if (!result.seams.feasible()) return result;
+
+  std::vector<const SolvedSeam*> seams;
+  for (const SeamOutcome& outcome : result.seams.tasks) seams.push_back(&std::get<SolvedSeam>(outcome));
+  if (seams.empty()) throw InputError(job.source, 0, "the job has no seams or patches");
+  const std::string& tool_name = seams.front()->tool;
+  for (const SolvedSeam* seam : seams) {
+    if (seam->tool != tool_name) {
+      throw InputError(job.source, 0,
+                       "seam '" + seam->name + "' uses tool '" + seam->tool + "' after '" +
+                           tool_name + "': tool changes within one program are not supported");
+    }
+  }
+  const Tool& tool = toolOf(job, tool_name);
+  const kinematics::ArmModel& arm = job.cell.arm;
+
+  CellCollisionOptions transit_collision = options.collision;
+  transit_collision.clearance_margin = job.transit.clearance;
+  const collision::CollisionWorld world = buildCellCollisionWorld(job.cell, tool, transit_collision);
+  collision::CollisionWorkspace workspace(world);
+  const TransitPlanner transit_planner(world);
+  const unsigned seed = options.seed.value_or(job.transit.seed);
+
+  Program program;
+  program.metadata.job = job.name;
+  program.metadata.arm = arm.name();
+  program.metadata.generator = options.generator;
+  program.metadata.seed = seed;
+  program.metadata.inputs = inputHashes(job);
+  program.metadata.joints = programJoints(arm);
+  ProgramBuilder builder(job, options, program);
+
+  JointTimingLimits transit_limits;
+  transit_limits.velocity_fraction = job.transit.joint_speed_fraction;
+  const auto joint_move = [&](const JointVector& q, double duration) {
+    MotionRecord record;
+    record.kind = MotionKind::kJointMove;
+    record.q = q;
+    record.X_RT = builder.worldTcp(q, tool);
+    record.tool = tool.name;
+    record.frame = kWorldFrame;
+    record.speed = {SpeedKind::kJointSpeedFraction, job.transit.joint_speed_fraction};
+    record.duration = duration;
+    builder.addMotion(record, world, workspace);
+  };
+  // Where the arm is assumed to start; no time passes.
+  joint_move(job.cell.home, 0.0);
+
+  JointVector position = job.cell.home;
+  std::string position_name = "home";
+  const auto transit_to = [&](const JointVector& goal, const std::string& goal_name,
+                              int index) -> bool {
+    TransitRequest request;
+    request.start = position;
+    request.goals = {goal};
+    request.planner = options.transit_planner;
+    request.time_limit = job.transit.time_limit;
+    // One seed per transit, derived from the job's, so that a change to one
+    // transit does not reshuffle the others.
+    request.seed = seed + static_cast<unsigned>(index);
+    const TransitResult transit = transit_planner.plan(request);
+    if (!transit.solved()) {
+      result.transit_failures.push_back({position_name, goal_name, transit});
+      return false;
+    }
+    const JointTrajectory trajectory(arm, transit.path, transit_limits);
+    for (const JointTrajectory::Segment& segment : trajectory.segments()) {
+      joint_move(segment.q_end, segment.profile.duration());
+    }
+    position = goal;
+    position_name = goal_name;
+    return true;
+  };
+
+  bool complete = true;
+  for (std::size_t s = 0; s < seams.size() && complete; ++s) {
+    const SolvedSeam& seam = *seams[s];
+    complete = transit_to(seam.approach.q, seam.name, static_cast<int>(s));
+    if (!complete) break;
+    const std::string words = seam.branch.toString();
+    const std::string parameter_set = toString(seam.process);
+    const SolvedPose* previous = &seam.approach;
+    bool process_on = false;
+    const auto linear_move = [&](const SolvedPose& target, double speed, int waypoint) {
+      const LinearTiming timing = timeLinear(arm, previous->q, target.q, previous->X_XT,
+                                             target.X_XT, speed, options.orientation_speed);
+      MotionRecord record;
+      record.kind = MotionKind::kLinearMove;
+      record.q = target.q;
+      record.X_RT = target.X_XT;
+      record.tool = tool.name;
+      record.frame = seam.frame;
+      record.speed = {SpeedKind::kTcpSpeed, speed};
+      record.duration = timing.duration;
+      record.seam = seam.name;
+      record.branch = words;
+      if (timing.joint_limited) {
+        const double distance = (target.X_XT.translation() - previous->X_XT.translation()).norm();
+        result.speed_limits.push_back(
+            {seam.name, waypoint, speed, distance / timing.duration, arm.joint(timing.joint).name});
+      }
+      builder.addMotion(record, world, workspace);
+      previous = &target;
+    };
+    for (std::size_t i = 0; i < seam.waypoints.size(); ++i) {
+      const SolvedPose& pose = seam.waypoints[i];
+      const bool first = i == 0;
+      linear_move(pose, first ? options.approach_speed : pose.speed, static_cast<int>(i));
+      if (pose.process_on != process_on) {
+        builder.addEvent(pose.process_on ? ProcessEventKind::kStart : ProcessEventKind::kStop,
+                         parameter_set, seam.name);
+        process_on = pose.process_on;
+      }
+    }
+    if (process_on) builder.addEvent(ProcessEventKind::kStop, parameter_set, seam.name);
+    linear_move(seam.retract, options.approach_speed, static_cast<int>(seam.waypoints.size()));
+    position = seam.retract.q;
+    position_name = seam.name;
+    for (std::size_t i = 0; i < seam.waypoints.size(); ++i) {
+      if (seam.waypoints[i].wrist_warning) {
+        program.warnings.push_back("seam " + seam.name + " waypoint " + std::to_string(i) +
+                                   ": axis 5 within the wrist warning margin");
+      }
+    }
+  }
+  if (complete) complete = transit_to(job.cell.home, "home", static_cast<int>(seams.size()));
+  if (!complete) return result;
+
+  for (const SpeedLimit& limit : result.speed_limits) {
+    program.warnings.push_back("seam " + limit.seam + " move to waypoint " +
+                               std::to_string(limit.waypoint) + ": TCP speed lowered from " +
+                               millimetresPerSecond(limit.programmed) + " to " +
+                               millimetresPerSecond(limit.held) + " mm/s (" + limit.joint +
+                               " at its velocity limit)");
+  }
+  for (const std::string& note : world.notes()) program.warnings.push_back(note);
+  checkProgram(program, job.source);
+  result.program = std::move(program);
+  return result;
+}
+
+}  // namespace tw::planner

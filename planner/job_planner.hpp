@@ -1,0 +1,80 @@
+#pragma once
+
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "planner/job.hpp"
+#include "planner/job_solver.hpp"
+#include "planner/program/program.hpp"
+#include "planner/transit_planner.hpp"
+
+namespace tw::planner {
+
+/// Settings of the whole pipeline, set by field name. SI units.
+struct PlanOptions {
+  SeamSolverOptions solver;
+  CellCollisionOptions collision;
+  /// OMPL planner for transits, one of transitPlannerNames().
+  std::string transit_planner = "RRTConnect";
+  /// Overrides the job's transit seed when set (> 0).
+  std::optional<unsigned> seed;
+  /// TCP speed of the linear approach and retract moves [m/s]. 50 mm/s: the
+  /// final approach at reduced speed (domain-facts §1, common practice).
+  double approach_speed = 0.050;
+  /// Largest rotation rate of the tool on linear moves [rad/s]; a corner
+  /// turned on the spot takes angle / rate. 90°/s: common practice, no
+  /// source (slow enough for a torch and its hose package).
+  double orientation_speed = 1.5707963267948966;
+  /// Measure the clearance at every motion target for the outputs (costs
+  /// about a millisecond per record on the demo cell).
+  bool measure_clearance = true;
+  /// Generator name and version written into every program.
+  std::string generator = "tracewright 0.1.0";
+};
+
+/// A transit that could not be planned, with the planner's own words.
+struct TransitFailure {
+  std::string from;  ///< "home" or the seam the transit leaves
+  std::string to;    ///< the seam it goes to, or "home"
+  TransitResult result;
+};
+
+/// A linear move that could not be run at its programmed TCP speed within
+/// the joint velocity limits, and the speed it gets instead.
+struct SpeedLimit {
+  std::string seam;
+  int waypoint = 0;              ///< index of the move's target pose in the seam
+  double programmed = 0.0;       ///< [m/s]
+  double held = 0.0;             ///< [m/s]
+  std::string joint;             ///< the joint at its velocity limit
+};
+
+/// The result of planning a job: the seam solutions, then either a program
+/// or the reasons there is none.
+struct PlanResult {
+  JobSolution seams;
+  std::vector<TransitFailure> transit_failures;
+  std::vector<SpeedLimit> speed_limits;
+  /// Present only when every seam and transit succeeded.
+  std::optional<Program> program;
+
+  bool feasible() const { return program.has_value(); }
+};
+
+/// The full pipeline for a loaded job: solve every seam (solveJob), plan
+/// the transits home → seam 1 → … → seam n → home in the job's order with
+/// OMPL, time every move (transits with synchronised trapezoidal profiles
+/// at the job's joint speed fraction; linear moves at their TCP speed,
+/// lowered where a joint would exceed its velocity limit, and reported),
+/// and assemble the Program with its metadata (input file hashes, seed) and
+/// per-record branch, clearance and singularity margin.
+///
+/// The program starts with a zero-length joint move that states the home
+/// position (where the arm is assumed to be), and ends back at home.
+/// Throws tw::InputError for bad input; infeasible work is reported in the
+/// result. Deterministic for a given job and seed, whatever the thread count.
+PlanResult planJob(const Job& job, const PlanOptions& options = {});
+
+}  // namespace tw::planner
