@@ -39,6 +39,9 @@ struct Layer {
   /// Sorted by (branch, spin, q6); group g = branch · spins + spin starts at group_start[g].
   std::vector<Candidate> candidates;
   std::vector<int> group_start;
+  /// Joint step bound [rad] from spin sa of the previous layer to spin sb
+  /// of this one, at [sb · (2K + 1) + (sa − sb + K)], K = max spin change.
+  std::vector<double> step_bound;
   BlockedWaypoint tally;
   std::optional<NearMiss> nearest;  ///< among limit, wrist and twist rejections
 };
@@ -88,6 +91,8 @@ class SeamSearch {
     }
     X_TF_ = setting.X_FT.inverse();
     makeSpins();
+    max_spin_change_ = std::max(
+        0, static_cast<int>(std::floor(options.max_spin_change / options.spin_step + 1e-9)));
     makeLayers();
   }
 
@@ -141,6 +146,48 @@ class SeamSearch {
     layers_[n + 1].line = n > 0 ? path_.waypoints.back().line : 0;
     const Eigen::Isometry3d X_BX = setting_.X_WB.inverse() * setting_.X_WX;
     for (Layer& layer : layers_) makeCandidates(layer, X_BX);
+    const int spins = static_cast<int>(spins_.size());
+    const int offsets = 2 * max_spin_change_ + 1;
+    for (std::size_t l = 1; l < layers_.size(); ++l) {
+      Layer& layer = layers_[l];
+      layer.step_bound.assign(static_cast<std::size_t>(spins) * offsets, -1.0);
+      for (int sb = 0; sb < spins; ++sb) {
+        for (int d = -max_spin_change_; d <= max_spin_change_; ++d) {
+          const std::optional<int> sa = spinFrom(sb, d);
+          if (!sa) continue;
+          layer.step_bound[sb * offsets + d + max_spin_change_] =
+              stepBound(travel(layers_[l - 1], *sa, layer, sb));
+        }
+      }
+    }
+  }
+
+  /// The spin sample d samples away from sb, or nullopt when there is none
+  /// (outside a partial range, or already visited round a full circle).
+  std::optional<int> spinFrom(int sb, int d) const {
+    const int spins = static_cast<int>(spins_.size());
+    if (!full_circle_) {
+      const int sa = sb + d;
+      if (sa < 0 || sa >= spins) return std::nullopt;
+      return sa;
+    }
+    // Round a full circle each sample once: offsets −⌊(n−1)/2⌋ … ⌈(n−1)/2⌉.
+    if (d < -(spins - 1) / 2 || d > spins / 2) return std::nullopt;
+    return ((sb + d) % spins + spins) % spins;
+  }
+
+  /// The bound for a step from spin sa to spin sb into layer l, or nullopt
+  /// when the spin changes by more than max_spin_change samples.
+  std::optional<double> boundInto(int l, int sa, int sb) const {
+    const int spins = static_cast<int>(spins_.size());
+    for (int d = -max_spin_change_; d <= max_spin_change_; ++d) {
+      const std::optional<int> from = spinFrom(sb, d);
+      if (from && *from == sa) {
+        return layers_[l].step_bound[sb * (2 * max_spin_change_ + 1) + d + max_spin_change_];
+      }
+    }
+    (void)spins;
+    return std::nullopt;
   }
 
   void makeCandidates(Layer& layer, const Eigen::Isometry3d& X_BX) {
@@ -239,17 +286,12 @@ class SeamSearch {
     const Layer& prev = layers_[l - 1];
     const Layer& layer = layers_[l];
     const int spins = static_cast<int>(spins_.size());
-    for (int d = -1; d <= 1; ++d) {
-      int sa = c.spin + d;
-      if (spins == 1 && d != 0) continue;
-      if (full_circle_) {
-        sa = (sa + spins) % spins;
-        if (spins == 2 && d == 1) continue;  // -1 and +1 are the same sample
-      } else if (sa < 0 || sa >= spins) {
-        continue;
-      }
-      const double bound = stepBound(travel(prev, sa, layer, c.spin));
-      const int group = c.branch * spins + sa;
+    const int offsets = 2 * max_spin_change_ + 1;
+    for (int d = -max_spin_change_; d <= max_spin_change_; ++d) {
+      const std::optional<int> sa = spinFrom(c.spin, d);
+      if (!sa) continue;
+      const double bound = layer.step_bound[c.spin * offsets + d + max_spin_change_];
+      const int group = c.branch * spins + *sa;
       const auto first = prev.candidates.begin() + prev.group_start[group];
       const auto last = prev.candidates.begin() + prev.group_start[group + 1];
       const double q6 = c.q[5];
@@ -512,11 +554,8 @@ class SeamSearch {
         if (a.cost == kInfinity) continue;
         StepReason reason = StepReason::kBranchChange;
         if (a.branch == b.branch) {
-          const bool spin_ok = std::abs(a.spin - b.spin) <= 1 ||
-                               (full_circle_ && std::abs(a.spin - b.spin) ==
-                                                    static_cast<int>(spins_.size()) - 1);
-          if (!spin_ok ||
-              maxAbs(a.q, b.q) > stepBound(travel(prev, a.spin, layer, b.spin))) {
+          const std::optional<double> bound = boundInto(dead, a.spin, b.spin);
+          if (!bound || maxAbs(a.q, b.q) > *bound) {
             reason = StepReason::kJointJump;
           } else if (const std::optional<StepReason> refused = checkStep(dead, p, c)) {
             reason = *refused;
@@ -542,6 +581,7 @@ class SeamSearch {
   Eigen::Isometry3d X_TF_;
   std::vector<double> spins_;
   bool full_circle_ = false;
+  int max_spin_change_ = 0;  ///< in samples
   std::vector<Layer> layers_;
   std::unordered_map<std::uint64_t, bool> edges_;  ///< fully checked steps: passed?
   kinematics::IkSolutions solutions_;

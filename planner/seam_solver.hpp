@@ -33,7 +33,7 @@ using SeamOutcome = std::variant<SolvedSeam, SeamReport>;
 /// × every in-limit turn of each joint, rejected for being out of reach,
 /// past a limit, within the hard wrist margin or past the twist limit.
 /// A step between candidates of consecutive poses exists only in the same
-/// branch, with the spin changing by at most one sample, each joint within
+/// branch, with the spin changing by at most max_spin_change, each joint within
 /// the bound for the TCP travel; it is accepted only if the linear TCP
 /// motion, re-solved in that branch at least interpolation_step apart,
 /// stays within limits and the bound, passes the midpoint continuity test on
