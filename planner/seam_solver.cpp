@@ -179,14 +179,12 @@ class SeamSearch {
   /// The bound for a step from spin sa to spin sb into layer l, or nullopt
   /// when the spin changes by more than max_spin_change samples.
   std::optional<double> boundInto(int l, int sa, int sb) const {
-    const int spins = static_cast<int>(spins_.size());
     for (int d = -max_spin_change_; d <= max_spin_change_; ++d) {
       const std::optional<int> from = spinFrom(sb, d);
       if (from && *from == sa) {
         return layers_[l].step_bound[sb * (2 * max_spin_change_ + 1) + d + max_spin_change_];
       }
     }
-    (void)spins;
     return std::nullopt;
   }
 
