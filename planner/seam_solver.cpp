@@ -338,11 +338,19 @@ class SeamSearch {
     return best;
   }
 
-  void checkCandidate(Candidate& c) {
-    if (c.check != CheckState::kUnchecked) return;
-    c.collision = world_.checkState(c.q, workspace_);
+  /// Checks candidate i of `layer` and gives the result to its whole group:
+  /// one branch at one spin is one arm pose, the group's members differ only
+  /// by whole turns of joints, so they collide or not together.
+  void checkCandidate(Layer& layer, int i) {
+    if (layer.candidates[i].check != CheckState::kUnchecked) return;
+    const collision::StateResult result = world_.checkState(layer.candidates[i].q, workspace_);
     ++counts_.state_checks;
-    c.check = c.collision.valid() ? CheckState::kFree : CheckState::kColliding;
+    const int spins = static_cast<int>(spins_.size());
+    const int group = layer.candidates[i].branch * spins + layer.candidates[i].spin;
+    for (int k = layer.group_start[group]; k < layer.group_start[group + 1]; ++k) {
+      layer.candidates[k].collision = result;
+      layer.candidates[k].check = result.valid() ? CheckState::kFree : CheckState::kColliding;
+    }
   }
 
   /// Checks the chosen path; returns the first layer whose choice failed
@@ -350,8 +358,8 @@ class SeamSearch {
   int validate(const std::vector<int>& chosen) {
     int first_failure = -1;
     for (int l = 0; l < static_cast<int>(layers_.size()); ++l) {
-      Candidate& c = layers_[l].candidates[chosen[l]];
-      checkCandidate(c);
+      checkCandidate(layers_[l], chosen[l]);
+      const Candidate& c = layers_[l].candidates[chosen[l]];
       if (c.check == CheckState::kColliding && first_failure < 0) first_failure = l;
     }
     if (first_failure >= 0) return first_failure;
@@ -489,9 +497,9 @@ class SeamSearch {
     out.waypoint_count = static_cast<int>(path_.waypoints.size());
     for (Layer& layer : layers_) {
       bool any_free = false;
-      for (Candidate& c : layer.candidates) {
-        checkCandidate(c);
-        any_free = any_free || c.check == CheckState::kFree;
+      for (int i = 0; i < static_cast<int>(layer.candidates.size()); ++i) {
+        checkCandidate(layer, i);
+        any_free = any_free || layer.candidates[i].check == CheckState::kFree;
       }
       if (any_free) continue;
       BlockedWaypoint blocked = layer.tally;
