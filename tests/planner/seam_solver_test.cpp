@@ -429,3 +429,45 @@ TEST_CASE("A seam through the wrist singularity in its naive branch is avoided b
 
 }  // namespace
 }  // namespace tw::planner
+
+namespace tw::planner {
+namespace {
+
+TEST_CASE("A wrist twist limit below the free solution's twist is kept or reported",
+          "[planner][seam-solver]") {
+  const Job job = loadJob(test::sourcePath("samples/jobs/bracket_welds.xml"));
+  const SeamSpec& spec = std::get<SeamSpec>(job.tasks[2]);
+  const ToolPath path = buildToolPath(spec, *job.cell.findTool(spec.tool));
+  Bench bench(job.cell);
+  const SeamOutcome free = bench.solve(path);
+  REQUIRE(std::holds_alternative<SolvedSeam>(free));
+  double twist = 0.0;
+  const auto twistOf = [](const SolvedPose& pose) {
+    return std::abs(pose.q[3]) + std::abs(pose.q[5]);
+  };
+  for (const SolvedPose& pose : std::get<SolvedSeam>(free).waypoints) {
+    twist = std::max(twist, twistOf(pose));
+  }
+  CAPTURE(twist);
+  REQUIRE(twist > 0.1);
+  SeamSolverOptions options;
+  options.wrist_twist_limit = twist - 0.05;  // 0.05 rad below: the free solution breaks it
+  const SeamOutcome limited = bench.solve(path, options);
+  if (const auto* seam = std::get_if<SolvedSeam>(&limited)) {
+    std::vector<const SolvedPose*> poses{&seam->approach, &seam->retract};
+    for (const SolvedPose& pose : seam->waypoints) poses.push_back(&pose);
+    for (const SolvedPose* pose : poses) CHECK(twistOf(*pose) <= *options.wrist_twist_limit);
+    verifySolved(*seam, path, bench.setting(path.frame), options, *bench.workspace);
+  } else {
+    const SeamReport& report = std::get<SeamReport>(limited);
+    CAPTURE(report.text());
+    int twisted = 0;
+    for (const BlockedWaypoint& b : report.blocked) {
+      twisted += b.rejected[static_cast<int>(RejectReason::kWristTwist)];
+    }
+    CHECK((twisted > 0 || report.step.has_value()));
+  }
+}
+
+}  // namespace
+}  // namespace tw::planner
