@@ -8,6 +8,7 @@
 #include <unordered_map>
 
 #include "kinematics/forward_kinematics.hpp"
+#include "kinematics/input_error.hpp"
 #include "kinematics/ortho_parallel_ik.hpp"
 
 namespace tw::planner {
@@ -83,11 +84,12 @@ class SeamSearch {
         ik_(arm_),
         geometry_(*arm_.orthoParallel()),
         workspace_(workspace) {
-    weights_ = options.weights.size() == arm_.jointCount()
-                   ? Eigen::VectorXd(options.weights)
-                   : Eigen::VectorXd(arm_.jointCount());
-    if (options.weights.size() != arm_.jointCount()) {
+    checkOptions();
+    if (options.weights.size() == 0) {
+      weights_ = Eigen::VectorXd(arm_.jointCount());
       for (int j = 0; j < arm_.jointCount(); ++j) weights_[j] = 1.0 / arm_.joint(j).max_velocity;
+    } else {
+      weights_ = options.weights;
     }
     X_TF_ = setting.X_FT.inverse();
     makeSpins();
@@ -113,6 +115,25 @@ class SeamSearch {
   }
 
  private:
+  /// Settings that would make the search meaningless are refused, not mended.
+  void checkOptions() const {
+    const auto refuse = [](const std::string& what) {
+      throw InputError("seam solver options: " + what);
+    };
+    if (!(options_.spin_step > 0.0)) refuse("spin_step must be a positive angle");
+    if (!(options_.max_spin_change >= 0.0)) refuse("max_spin_change must not be negative");
+    if (!(options_.joint_rate > 0.0) || !(options_.joint_step_floor >= 0.0)) {
+      refuse("joint_rate must be positive and joint_step_floor not negative");
+    }
+    if (!(options_.interpolation_step > 0.0) || !(options_.interpolation_angle > 0.0)) {
+      refuse("interpolation_step and interpolation_angle must be positive");
+    }
+    if (options_.weights.size() != 0 && options_.weights.size() != arm_.jointCount()) {
+      refuse("weights needs one value per joint (" + std::to_string(arm_.jointCount()) +
+             "), got " + std::to_string(options_.weights.size()));
+    }
+  }
+
   void makeSpins() {
     const SpinRange& range = path_.spin;
     const double span = range.max - range.min;
@@ -599,6 +620,7 @@ class SeamSearch {
 
 SeamOutcome solveSeam(const ToolPath& path, const SeamSetting& setting,
                       const SeamSolverOptions& options, collision::CollisionWorkspace& workspace) {
+  if (setting.world == nullptr) throw InputError("seam solver: the setting has no collision world");
   return SeamSearch(path, setting, options, workspace).run();
 }
 

@@ -48,7 +48,9 @@ using SeamOutcome = std::variant<SolvedSeam, SeamReport>;
 /// When no path exists every candidate is checked and the report names each
 /// blocked pose with its reasons, or the first step no path crosses.
 /// Deterministic. Thread-safe for distinct workspaces (one per thread).
-/// Precondition: the arm has ortho-parallel parameters (else tw::InputError).
+/// Throws tw::InputError unless the arm has ortho-parallel parameters, for a
+/// setting without a world, and for options out of range (a non-positive
+/// step, rate or interpolation step, weights of the wrong size).
 SeamOutcome solveSeam(const ToolPath& path, const SeamSetting& setting,
                       const SeamSolverOptions& options, collision::CollisionWorkspace& workspace);
 

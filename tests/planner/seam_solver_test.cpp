@@ -471,3 +471,20 @@ TEST_CASE("A wrist twist limit below the free solution's twist is kept or report
 
 }  // namespace
 }  // namespace tw::planner
+
+namespace tw::planner {
+namespace {
+
+TEST_CASE("Seam solver options out of range are refused", "[planner][seam-solver]") {
+  Bench bench(sampleCell());
+  const ToolPath path = straightPath("world", {0.9, 0.3, 0.9}, {0.9, 0.31, 0.9}, 3, kFullSpin);
+  SeamSolverOptions zero_step;
+  zero_step.spin_step = 0.0;
+  CHECK_THROWS_AS(bench.solve(path, zero_step), InputError);
+  SeamSolverOptions short_weights;
+  short_weights.weights = Eigen::VectorXd::Ones(5);
+  CHECK_THROWS_WITH(bench.solve(path, short_weights), Catch::Contains("one value per joint"));
+}
+
+}  // namespace
+}  // namespace tw::planner
