@@ -8,6 +8,7 @@
 #include <unordered_map>
 
 #include "kinematics/forward_kinematics.hpp"
+#include "kinematics/input_error.hpp"
 #include "kinematics/ortho_parallel_ik.hpp"
 
 namespace tw::planner {
@@ -39,6 +40,9 @@ struct Layer {
   /// Sorted by (branch, spin, q6); group g = branch · spins + spin starts at group_start[g].
   std::vector<Candidate> candidates;
   std::vector<int> group_start;
+  /// Joint step bound [rad] from spin sa of the previous layer to spin sb
+  /// of this one, at [sb · (2K + 1) + (sa − sb + K)], K = max spin change.
+  std::vector<double> step_bound;
   BlockedWaypoint tally;
   std::optional<NearMiss> nearest;  ///< among limit, wrist and twist rejections
 };
@@ -80,14 +84,17 @@ class SeamSearch {
         ik_(arm_),
         geometry_(*arm_.orthoParallel()),
         workspace_(workspace) {
-    weights_ = options.weights.size() == arm_.jointCount()
-                   ? Eigen::VectorXd(options.weights)
-                   : Eigen::VectorXd(arm_.jointCount());
-    if (options.weights.size() != arm_.jointCount()) {
+    checkOptions();
+    if (options.weights.size() == 0) {
+      weights_ = Eigen::VectorXd(arm_.jointCount());
       for (int j = 0; j < arm_.jointCount(); ++j) weights_[j] = 1.0 / arm_.joint(j).max_velocity;
+    } else {
+      weights_ = options.weights;
     }
     X_TF_ = setting.X_FT.inverse();
     makeSpins();
+    max_spin_change_ = std::max(
+        0, static_cast<int>(std::floor(options.max_spin_change / options.spin_step + 1e-9)));
     makeLayers();
   }
 
@@ -108,6 +115,25 @@ class SeamSearch {
   }
 
  private:
+  /// Settings that would make the search meaningless are refused, not mended.
+  void checkOptions() const {
+    const auto refuse = [](const std::string& what) {
+      throw InputError("seam solver options: " + what);
+    };
+    if (!(options_.spin_step > 0.0)) refuse("spin_step must be a positive angle");
+    if (!(options_.max_spin_change >= 0.0)) refuse("max_spin_change must not be negative");
+    if (!(options_.joint_rate > 0.0) || !(options_.joint_step_floor >= 0.0)) {
+      refuse("joint_rate must be positive and joint_step_floor not negative");
+    }
+    if (!(options_.interpolation_step > 0.0) || !(options_.interpolation_angle > 0.0)) {
+      refuse("interpolation_step and interpolation_angle must be positive");
+    }
+    if (options_.weights.size() != 0 && options_.weights.size() != arm_.jointCount()) {
+      refuse("weights needs one value per joint (" + std::to_string(arm_.jointCount()) +
+             "), got " + std::to_string(options_.weights.size()));
+    }
+  }
+
   void makeSpins() {
     const SpinRange& range = path_.spin;
     const double span = range.max - range.min;
@@ -141,6 +167,46 @@ class SeamSearch {
     layers_[n + 1].line = n > 0 ? path_.waypoints.back().line : 0;
     const Eigen::Isometry3d X_BX = setting_.X_WB.inverse() * setting_.X_WX;
     for (Layer& layer : layers_) makeCandidates(layer, X_BX);
+    const int spins = static_cast<int>(spins_.size());
+    const int offsets = 2 * max_spin_change_ + 1;
+    for (std::size_t l = 1; l < layers_.size(); ++l) {
+      Layer& layer = layers_[l];
+      layer.step_bound.assign(static_cast<std::size_t>(spins) * offsets, -1.0);
+      for (int sb = 0; sb < spins; ++sb) {
+        for (int d = -max_spin_change_; d <= max_spin_change_; ++d) {
+          const std::optional<int> sa = spinFrom(sb, d);
+          if (!sa) continue;
+          layer.step_bound[sb * offsets + d + max_spin_change_] =
+              stepBound(travel(layers_[l - 1], *sa, layer, sb));
+        }
+      }
+    }
+  }
+
+  /// The spin sample d samples away from sb, or nullopt when there is none
+  /// (outside a partial range, or already visited round a full circle).
+  std::optional<int> spinFrom(int sb, int d) const {
+    const int spins = static_cast<int>(spins_.size());
+    if (!full_circle_) {
+      const int sa = sb + d;
+      if (sa < 0 || sa >= spins) return std::nullopt;
+      return sa;
+    }
+    // Round a full circle each sample once: offsets −⌊(n−1)/2⌋ … ⌈(n−1)/2⌉.
+    if (d < -(spins - 1) / 2 || d > spins / 2) return std::nullopt;
+    return ((sb + d) % spins + spins) % spins;
+  }
+
+  /// The bound for a step from spin sa to spin sb into layer l, or nullopt
+  /// when the spin changes by more than max_spin_change samples.
+  std::optional<double> boundInto(int l, int sa, int sb) const {
+    for (int d = -max_spin_change_; d <= max_spin_change_; ++d) {
+      const std::optional<int> from = spinFrom(sb, d);
+      if (from && *from == sa) {
+        return layers_[l].step_bound[sb * (2 * max_spin_change_ + 1) + d + max_spin_change_];
+      }
+    }
+    return std::nullopt;
   }
 
   void makeCandidates(Layer& layer, const Eigen::Isometry3d& X_BX) {
@@ -239,17 +305,12 @@ class SeamSearch {
     const Layer& prev = layers_[l - 1];
     const Layer& layer = layers_[l];
     const int spins = static_cast<int>(spins_.size());
-    for (int d = -1; d <= 1; ++d) {
-      int sa = c.spin + d;
-      if (spins == 1 && d != 0) continue;
-      if (full_circle_) {
-        sa = (sa + spins) % spins;
-        if (spins == 2 && d == 1) continue;  // -1 and +1 are the same sample
-      } else if (sa < 0 || sa >= spins) {
-        continue;
-      }
-      const double bound = stepBound(travel(prev, sa, layer, c.spin));
-      const int group = c.branch * spins + sa;
+    const int offsets = 2 * max_spin_change_ + 1;
+    for (int d = -max_spin_change_; d <= max_spin_change_; ++d) {
+      const std::optional<int> sa = spinFrom(c.spin, d);
+      if (!sa) continue;
+      const double bound = layer.step_bound[c.spin * offsets + d + max_spin_change_];
+      const int group = c.branch * spins + *sa;
       const auto first = prev.candidates.begin() + prev.group_start[group];
       const auto last = prev.candidates.begin() + prev.group_start[group + 1];
       const double q6 = c.q[5];
@@ -298,11 +359,19 @@ class SeamSearch {
     return best;
   }
 
-  void checkCandidate(Candidate& c) {
-    if (c.check != CheckState::kUnchecked) return;
-    c.collision = world_.checkState(c.q, workspace_);
+  /// Checks candidate i of `layer` and gives the result to its whole group:
+  /// one branch at one spin is one arm pose, the group's members differ only
+  /// by whole turns of joints, so they collide or not together.
+  void checkCandidate(Layer& layer, int i) {
+    if (layer.candidates[i].check != CheckState::kUnchecked) return;
+    const collision::StateResult result = world_.checkState(layer.candidates[i].q, workspace_);
     ++counts_.state_checks;
-    c.check = c.collision.valid() ? CheckState::kFree : CheckState::kColliding;
+    const int spins = static_cast<int>(spins_.size());
+    const int group = layer.candidates[i].branch * spins + layer.candidates[i].spin;
+    for (int k = layer.group_start[group]; k < layer.group_start[group + 1]; ++k) {
+      layer.candidates[k].collision = result;
+      layer.candidates[k].check = result.valid() ? CheckState::kFree : CheckState::kColliding;
+    }
   }
 
   /// Checks the chosen path; returns the first layer whose choice failed
@@ -310,8 +379,8 @@ class SeamSearch {
   int validate(const std::vector<int>& chosen) {
     int first_failure = -1;
     for (int l = 0; l < static_cast<int>(layers_.size()); ++l) {
-      Candidate& c = layers_[l].candidates[chosen[l]];
-      checkCandidate(c);
+      checkCandidate(layers_[l], chosen[l]);
+      const Candidate& c = layers_[l].candidates[chosen[l]];
       if (c.check == CheckState::kColliding && first_failure < 0) first_failure = l;
     }
     if (first_failure >= 0) return first_failure;
@@ -449,9 +518,9 @@ class SeamSearch {
     out.waypoint_count = static_cast<int>(path_.waypoints.size());
     for (Layer& layer : layers_) {
       bool any_free = false;
-      for (Candidate& c : layer.candidates) {
-        checkCandidate(c);
-        any_free = any_free || c.check == CheckState::kFree;
+      for (int i = 0; i < static_cast<int>(layer.candidates.size()); ++i) {
+        checkCandidate(layer, i);
+        any_free = any_free || layer.candidates[i].check == CheckState::kFree;
       }
       if (any_free) continue;
       BlockedWaypoint blocked = layer.tally;
@@ -512,11 +581,8 @@ class SeamSearch {
         if (a.cost == kInfinity) continue;
         StepReason reason = StepReason::kBranchChange;
         if (a.branch == b.branch) {
-          const bool spin_ok = std::abs(a.spin - b.spin) <= 1 ||
-                               (full_circle_ && std::abs(a.spin - b.spin) ==
-                                                    static_cast<int>(spins_.size()) - 1);
-          if (!spin_ok ||
-              maxAbs(a.q, b.q) > stepBound(travel(prev, a.spin, layer, b.spin))) {
+          const std::optional<double> bound = boundInto(dead, a.spin, b.spin);
+          if (!bound || maxAbs(a.q, b.q) > *bound) {
             reason = StepReason::kJointJump;
           } else if (const std::optional<StepReason> refused = checkStep(dead, p, c)) {
             reason = *refused;
@@ -542,6 +608,7 @@ class SeamSearch {
   Eigen::Isometry3d X_TF_;
   std::vector<double> spins_;
   bool full_circle_ = false;
+  int max_spin_change_ = 0;  ///< in samples
   std::vector<Layer> layers_;
   std::unordered_map<std::uint64_t, bool> edges_;  ///< fully checked steps: passed?
   kinematics::IkSolutions solutions_;
@@ -553,6 +620,7 @@ class SeamSearch {
 
 SeamOutcome solveSeam(const ToolPath& path, const SeamSetting& setting,
                       const SeamSolverOptions& options, collision::CollisionWorkspace& workspace) {
+  if (setting.world == nullptr) throw InputError("seam solver: the setting has no collision world");
   return SeamSearch(path, setting, options, workspace).run();
 }
 

@@ -33,7 +33,7 @@ using SeamOutcome = std::variant<SolvedSeam, SeamReport>;
 /// × every in-limit turn of each joint, rejected for being out of reach,
 /// past a limit, within the hard wrist margin or past the twist limit.
 /// A step between candidates of consecutive poses exists only in the same
-/// branch, with the spin changing by at most one sample, each joint within
+/// branch, with the spin changing by at most max_spin_change, each joint within
 /// the bound for the TCP travel; it is accepted only if the linear TCP
 /// motion, re-solved in that branch at least interpolation_step apart,
 /// stays within limits and the bound, passes the midpoint continuity test on
@@ -48,7 +48,9 @@ using SeamOutcome = std::variant<SolvedSeam, SeamReport>;
 /// When no path exists every candidate is checked and the report names each
 /// blocked pose with its reasons, or the first step no path crosses.
 /// Deterministic. Thread-safe for distinct workspaces (one per thread).
-/// Precondition: the arm has ortho-parallel parameters (else tw::InputError).
+/// Throws tw::InputError unless the arm has ortho-parallel parameters, for a
+/// setting without a world, and for options out of range (a non-positive
+/// step, rate or interpolation step, weights of the wrong size).
 SeamOutcome solveSeam(const ToolPath& path, const SeamSetting& setting,
                       const SeamSolverOptions& options, collision::CollisionWorkspace& workspace);
 

@@ -10,6 +10,11 @@ struct SeamSolverOptions {
   /// Spacing of the spin samples within the tool's spin range. 10°: the
   /// issue's default (finer costs IK calls linearly).
   double spin_step = 10.0 * 3.14159265358979323846 / 180.0;
+  /// Largest change of the spin from one waypoint to the next. 90°: a
+  /// corner turned on the spot may need the tool to keep its orientation
+  /// while the seam frame turns by the corner angle (common practice, no
+  /// source); the joint bound below still applies.
+  double max_spin_change = 90.0 * 3.14159265358979323846 / 180.0;
   /// Axis 5 nearer than this to 0 or ±180° is rejected: axes 4 and 6 line up
   /// and a small tool motion needs a large wrist rotation. 2°: common
   /// practice, no source.

@@ -1,0 +1,109 @@
+// Seam solve on the demo cell: a 500-waypoint straight seam, tool spin
+// sampled every 10°, one thread. Bar (DESIGN.md §5): ≤ 0.25 s on one core.
+// Reported beside the time: candidates generated, IK calls and collision
+// state checks of one solve, and, as a reference measured in the same run,
+// the time of one closed-form IK solve (ratio = solve time / IK time).
+#include <benchmark/benchmark.h>
+
+#include <chrono>
+
+#include "kinematics/ortho_parallel_ik.hpp"
+#include "planner/cell_loader.hpp"
+#include "planner/job_solver.hpp"
+
+namespace {
+
+using namespace tw::planner;
+constexpr double kPi = 3.14159265358979323846;
+
+struct Demo {
+  Cell cell = loadCell(std::string(TW_SOURCE_DIR) + "/samples/cells/bracket_weld_cell.xml");
+  tw::collision::CollisionWorld world = buildCellCollisionWorld(cell, *cell.findTool("torch"));
+  ToolPath path;
+  SeamSetting setting;
+
+  Demo() {
+    // 499 mm along the table's y axis, 1 mm apart, 100 mm above the top, torch down.
+    path.name = "bench-seam";
+    path.frame = "table-top";
+    path.tool = "torch";
+    path.spin = {-kPi, kPi};
+    for (int i = 0; i < 500; ++i) {
+      Waypoint waypoint;
+      waypoint.X_XT = Eigen::Translation3d(0.050, -0.250 + 0.001 * i, 0.100) *
+                      Eigen::AngleAxisd(kPi, Eigen::Vector3d::UnitX());
+      waypoint.speed = 0.010;
+      path.waypoints.push_back(waypoint);
+    }
+    path.approach = backedOff(path.waypoints.front().X_XT, 0.030);
+    path.retract = backedOff(path.waypoints.back().X_XT, 0.030);
+    setting.world = &world;
+    setting.X_WB = cell.frames.X_W(cell.arm_frame);
+    setting.X_WX = cell.frames.X_W(path.frame);
+    setting.X_FT = cell.findTool("torch")->X_FT;
+  }
+};
+
+Demo& demo() {
+  static Demo instance;
+  return instance;
+}
+
+void BM_IkReference(benchmark::State& state) {
+  const Demo& d = demo();
+  const tw::kinematics::OrthoParallelSolver ik(d.cell.arm);
+  tw::kinematics::IkSolutions solutions;
+  const Eigen::Isometry3d X_BF = d.setting.X_WB.inverse() * d.setting.X_WX *
+                                 d.path.waypoints[250].X_XT * d.setting.X_FT.inverse();
+  for (auto _ : state) {
+    ik.solve(X_BF, {}, solutions);
+    benchmark::DoNotOptimize(solutions.solutions.data());
+  }
+}
+BENCHMARK(BM_IkReference);
+
+void BM_SeamSolve500(benchmark::State& state) {
+  Demo& d = demo();
+  tw::collision::CollisionWorkspace workspace(d.world);
+  const SeamSolverOptions options;
+  SolverCounts counts;
+  double solve_seconds = 0.0;
+  for (auto _ : state) {
+    const auto start = std::chrono::steady_clock::now();
+    const SeamOutcome outcome = solveSeam(d.path, d.setting, options, workspace);
+    solve_seconds += std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+    const auto* solved = std::get_if<SolvedSeam>(&outcome);
+    if (!solved) {
+      state.SkipWithError(std::get<SeamReport>(outcome).text().c_str());
+      return;
+    }
+    counts = solved->counts;
+  }
+  state.counters["waypoints"] = static_cast<double>(d.path.waypoints.size());
+  state.counters["candidates"] = static_cast<double>(counts.candidates);
+  state.counters["ik_calls"] = static_cast<double>(counts.ik_calls);
+  state.counters["state_checks"] = static_cast<double>(counts.state_checks);
+  state.counters["edges_validated"] = static_cast<double>(counts.edges_validated);
+  state.counters["searches"] = counts.searches;
+  // Reference in the same run: one closed-form IK solve of a seam pose.
+  const tw::kinematics::OrthoParallelSolver ik(d.cell.arm);
+  tw::kinematics::IkSolutions solutions;
+  const Eigen::Isometry3d X_BF = d.setting.X_WB.inverse() * d.setting.X_WX *
+                                 d.path.waypoints[250].X_XT * d.setting.X_FT.inverse();
+  constexpr int kIkRuns = 20000;
+  const auto start = std::chrono::steady_clock::now();
+  for (int i = 0; i < kIkRuns; ++i) {
+    ik.solve(X_BF, {}, solutions);
+    benchmark::DoNotOptimize(solutions.solutions.data());
+  }
+  const double ik_seconds =
+      std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count() / kIkRuns;
+  const double solve_each = solve_seconds / static_cast<double>(state.iterations());
+  state.counters["ik_ns"] = ik_seconds * 1e9;
+  state.counters["solve_in_ik_solves"] = solve_each / ik_seconds;
+}
+BENCHMARK(BM_SeamSolve500)->Unit(benchmark::kMillisecond)->MinTime(1.0);
+
+}  // namespace
+
+BENCHMARK_MAIN();
