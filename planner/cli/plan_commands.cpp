@@ -119,8 +119,7 @@ nlohmann::json resultJson(const PlanResult& result, const std::vector<std::strin
   return json;
 }
 
-/// Writes every output of the job; all are produced before any is renamed
-/// into place would be better still, but each file on its own is atomic.
+/// Writes every output of the job, each file atomically.
 std::vector<std::string> writeOutputs(const planner::Job& job, const planner::Program& program,
                                       const std::string& directory_override) {
   postproc::PostProcessorRegistry registry;
@@ -137,12 +136,15 @@ std::vector<std::string> writeOutputs(const planner::Job& job, const planner::Pr
                        "<output writer=\"template\">: job files cannot name a template file yet");
     }
   }
-  const std::filesystem::path directory =
-      directory_override.empty() ? job.output_directory : directory_override;
-  std::filesystem::create_directories(directory);
   std::vector<std::string> written;
   for (const planner::OutputRequest& request : job.outputs) {
-    const std::filesystem::path path = directory / request.path;
+    // The loader resolved each path against the job's output directory; an
+    // override keeps only the file names.
+    const std::filesystem::path path =
+        directory_override.empty()
+            ? std::filesystem::path(request.path)
+            : std::filesystem::path(directory_override) / std::filesystem::path(request.path).filename();
+    std::filesystem::create_directories(path.parent_path());
     postproc::WriteOptions options;
     options.output_name = path.string();
     postproc::writeProgramFile(registry.get(request.writer), program, options, path);
