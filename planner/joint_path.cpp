@@ -17,7 +17,7 @@ std::optional<PathCheckFailure> recheckPath(const collision::CollisionWorld& wor
   const kinematics::ArmModel& arm = world.arm();
   for (std::size_t i = 0; i < path.size(); ++i) {
     if (path[i].size() != arm.jointCount() || !arm.withinLimits(path[i])) {
-      return PathCheckFailure{static_cast<int>(i) - (i > 0 ? 1 : 0),
+      return PathCheckFailure{i > 0 ? static_cast<int>(i) - 1 : 0,
                               "waypoint " + std::to_string(i) +
                                   " has the wrong joint count or is outside the joint limits"};
     }
