@@ -108,12 +108,6 @@ void checkRequest(const TransitRequest& request, int joints) {
   checkPlannerName(request.planner);
 }
 
-std::string describeState(const collision::CollisionWorld& world,
-                          const collision::StateResult& state) {
-  return world.bodyName(state.body_a) + " against " + world.bodyName(state.body_b) + " (" +
-         collision::toString(state.status) + ")";
-}
-
 /// Why q is not a valid configuration, or "" when it is.
 std::string stateProblem(const collision::CollisionWorld& world, const kinematics::JointVector& q,
                          detail::GuardedWorkspace& guarded) {
@@ -276,11 +270,15 @@ TransitResult TransitPlanner::plan(const TransitRequest& request) const {
   const ob::PlannerStatus status =
       planner->solve(ob::timedPlannerTerminationCondition(request.time_limit));
   if (status != ob::PlannerStatus::EXACT_SOLUTION) {
+    std::string goals_text;
+    for (int index : valid_goals) {
+      goals_text += (goals_text.empty() ? "goal " : ", goal ") + std::to_string(index) + " " +
+                    formatJoints(request.goals[index]);
+    }
     return finish(TransitOutcome::kTimeout,
-                  request.planner + " found no path from " + start_text + " to " +
-                      std::to_string(valid_goals.size()) + " valid goal(s) within " +
-                      formatDecimal(request.time_limit, 3) + " s (" + status.asString() + ")" +
-                      rejected);
+                  request.planner + " found no path from " + start_text + " to " + goals_text +
+                      " within " + formatDecimal(request.time_limit, 3) + " s (" +
+                      status.asString() + ")" + rejected);
   }
 
   og::PathGeometric path(*problem->getSolutionPath()->as<og::PathGeometric>());

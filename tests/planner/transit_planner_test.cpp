@@ -238,7 +238,8 @@ TEST_CASE("Planning failures are values with their reasons", "[transit]") {
     CHECK(result.outcome == TransitOutcome::kTimeout);
     CHECK(result.path.empty());
     CHECK(result.goal_index == -1);
-    CHECK_THAT(result.reason, Catch::Contains("RRTConnect") && Catch::Contains("start ("));
+    CHECK_THAT(result.reason, Catch::Contains("RRTConnect") && Catch::Contains("start (") &&
+                                  Catch::Contains("goal 0 ("));
     CHECK(std::string(toString(result.outcome)) == "timeout");
   }
 }
