@@ -17,7 +17,7 @@ std::optional<PathCheckFailure> recheckPath(const collision::CollisionWorld& wor
   const kinematics::ArmModel& arm = world.arm();
   for (std::size_t i = 0; i < path.size(); ++i) {
     if (path[i].size() != arm.jointCount() || !arm.withinLimits(path[i])) {
-      return PathCheckFailure{static_cast<int>(i) - (i > 0 ? 1 : 0),
+      return PathCheckFailure{i > 0 ? static_cast<int>(i) - 1 : 0,
                               "waypoint " + std::to_string(i) +
                                   " has the wrong joint count or is outside the joint limits"};
     }
@@ -25,8 +25,7 @@ std::optional<PathCheckFailure> recheckPath(const collision::CollisionWorld& wor
   if (path.size() == 1) {
     const collision::StateResult state = world.checkState(path.front(), workspace);
     if (state.valid()) return std::nullopt;
-    return PathCheckFailure{-1, "the only waypoint is invalid: " + world.bodyName(state.body_a) +
-                                    " against " + world.bodyName(state.body_b)};
+    return PathCheckFailure{-1, "the only waypoint is invalid: " + describeState(world, state)};
   }
   for (std::size_t i = 0; i + 1 < path.size(); ++i) {
     const collision::SegmentResult segment = world.checkSegment(path[i], path[i + 1], workspace);
@@ -34,9 +33,7 @@ std::optional<PathCheckFailure> recheckPath(const collision::CollisionWorld& wor
       return PathCheckFailure{
           static_cast<int>(i),
           "segment " + std::to_string(i) + " is invalid at fraction " +
-              formatDecimal(segment.fraction, 4) + ": " +
-              world.bodyName(segment.state.body_a) + " against " +
-              world.bodyName(segment.state.body_b) + " (" + collision::toString(segment.state.status) + ")"};
+              formatDecimal(segment.fraction, 4) + ": " + describeState(world, segment.state)};
     }
   }
   return std::nullopt;

@@ -18,7 +18,8 @@ using JointPath = std::vector<kinematics::JointVector>;
 double jointPathLength(const JointPath& path);
 
 /// Why a path failed its re-check: the segment (from waypoint `segment` to
-/// `segment + 1`; -1 for a path of fewer than one waypoint) and a sentence.
+/// `segment + 1`; for a bad waypoint the segment ending there, 0 for the
+/// first; -1 for an empty path or a single invalid waypoint) and a sentence.
 struct PathCheckFailure {
   int segment = -1;
   std::string reason;

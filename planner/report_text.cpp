@@ -30,4 +30,10 @@ std::string formatJoints(const kinematics::JointVector& q) {
   return text + ")";
 }
 
+std::string describeState(const collision::CollisionWorld& world,
+                          const collision::StateResult& state) {
+  return world.bodyName(state.body_a) + " against " + world.bodyName(state.body_b) + " (" +
+         collision::toString(state.status) + ")";
+}
+
 }  // namespace tw::planner

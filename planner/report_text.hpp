@@ -2,6 +2,7 @@
 
 #include <string>
 
+#include "collision/collision_world.hpp"
 #include "kinematics/joint.hpp"
 
 namespace tw::planner {
@@ -15,5 +16,9 @@ std::string formatDecimal(double value, int decimals);
 /// "(q0, q1, ...)" with every value to 17 significant digits [rad] or [m], so
 /// that a reported configuration can be pasted into a regression test.
 std::string formatJoints(const kinematics::JointVector& q);
+
+/// "<body> against <body> (<status>)" for an invalid state found in `world`.
+std::string describeState(const collision::CollisionWorld& world,
+                          const collision::StateResult& state);
 
 }  // namespace tw::planner

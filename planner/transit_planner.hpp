@@ -34,7 +34,8 @@ struct TransitRequest {
   int preferred_goal = 0;
   /// OMPL planner name, one of transitPlannerNames().
   std::string planner = "RRTConnect";
-  /// Planning time limit [s], > 0; simplification gets the same again.
+  /// Planning time limit [s], > 0. Simplification is bounded by OMPL's step
+  /// counts (a few times the path's waypoints), not by this limit.
   double time_limit = 1.0;
   /// Seed of OMPL's random numbers, > 0 (OMPL cannot use 0).
   unsigned seed = 1;

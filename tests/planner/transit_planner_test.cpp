@@ -5,6 +5,8 @@
 #include <ompl/base/SpaceInformation.h>
 #include <ompl/base/spaces/RealVectorStateSpace.h>
 
+#include <thread>
+
 #include "kinematics/input_error.hpp"
 #include "planner/collision_validity_checker.hpp"
 #include "planner/ompl_joint_state.hpp"
@@ -103,6 +105,22 @@ TEST_CASE("The same seed gives the identical path, another seed another one", "[
     any_different = any_different || planner.plan(demoRequest("RRTConnect", seed)).path != reference.path;
   }
   CHECK(any_different);
+}
+
+TEST_CASE("Plans from several threads at once equal the plans made one by one", "[transit]") {
+  const collision::CollisionWorld world(test::sampleArm(), test::demoCellDescription());
+  const TransitPlanner planner(world);
+  const TransitResult serial_a = planner.plan(demoRequest("RRTConnect", 21));
+  const TransitResult serial_b = planner.plan(demoRequest("RRTConnect", 22));
+  TransitResult parallel_a, parallel_b;
+  std::thread first([&] { parallel_a = planner.plan(demoRequest("RRTConnect", 21)); });
+  std::thread second([&] { parallel_b = planner.plan(demoRequest("RRTConnect", 22)); });
+  first.join();
+  second.join();
+  REQUIRE(serial_a.solved());
+  REQUIRE(serial_b.solved());
+  CHECK(parallel_a.path == serial_a.path);
+  CHECK(parallel_b.path == serial_b.path);
 }
 
 TEST_CASE("Every listed planner succeeds on the demo cell", "[transit]") {
@@ -220,7 +238,8 @@ TEST_CASE("Planning failures are values with their reasons", "[transit]") {
     CHECK(result.outcome == TransitOutcome::kTimeout);
     CHECK(result.path.empty());
     CHECK(result.goal_index == -1);
-    CHECK_THAT(result.reason, Catch::Contains("RRTConnect") && Catch::Contains("start ("));
+    CHECK_THAT(result.reason, Catch::Contains("RRTConnect") && Catch::Contains("start (") &&
+                                  Catch::Contains("goal 0 ("));
     CHECK(std::string(toString(result.outcome)) == "timeout");
   }
 }

@@ -1,0 +1,90 @@
+#include "planner/process_move_timing.hpp"
+
+#include <cmath>
+
+#include "kinematics/input_error.hpp"
+#include "planner/report_text.hpp"
+
+namespace tw::planner {
+
+namespace {
+
+void checkInput(const kinematics::ArmModel& arm, const std::vector<ProcessWaypoint>& waypoints,
+                const ProcessSpeed& speed) {
+  if (waypoints.size() < 2) throw InputError("a process move needs at least two waypoints");
+  for (std::size_t i = 0; i < waypoints.size(); ++i) {
+    if (waypoints[i].q.size() != arm.jointCount() || !waypoints[i].q.allFinite() ||
+        !waypoints[i].X_WT.matrix().allFinite()) {
+      throw InputError("process waypoint " + std::to_string(i) +
+                       " has the wrong joint count or a value that is not finite");
+    }
+  }
+  if (!(speed.tcp_speed > 0.0) || !std::isfinite(speed.tcp_speed) ||
+      !(speed.orientation_speed > 0.0) || !std::isfinite(speed.orientation_speed)) {
+    throw InputError("process TCP speed and orientation speed must be finite and > 0");
+  }
+  if (!(speed.joint_velocity_fraction > 0.0) || speed.joint_velocity_fraction > 1.0) {
+    throw InputError("process joint velocity fraction must lie in (0, 1]");
+  }
+}
+
+}  // namespace
+
+const char* toString(SpeedLimitCause cause) {
+  switch (cause) {
+    case SpeedLimitCause::kOrientationSpeed: return "orientation speed";
+    case SpeedLimitCause::kJointVelocity: return "joint velocity";
+  }
+  return "unknown";
+}
+
+ProcessMoveTiming timeProcessMove(const kinematics::ArmModel& arm,
+                                  const std::vector<ProcessWaypoint>& waypoints,
+                                  const ProcessSpeed& speed) {
+  checkInput(arm, waypoints, speed);
+  ProcessMoveTiming timing;
+  for (std::size_t i = 0; i + 1 < waypoints.size(); ++i) {
+    const ProcessWaypoint& from = waypoints[i];
+    const ProcessWaypoint& to = waypoints[i + 1];
+    const double distance = (to.X_WT.translation() - from.X_WT.translation()).norm();
+    const double turn =
+        Eigen::AngleAxisd(from.X_WT.linear().transpose() * to.X_WT.linear()).angle();
+    const double programmed_time = distance / speed.tcp_speed;
+    double time = programmed_time;
+    LoweredSpeed lowered{static_cast<int>(i), speed.tcp_speed, 0.0,
+                         SpeedLimitCause::kOrientationSpeed, -1, ""};
+    if (turn / speed.orientation_speed > time) {
+      time = turn / speed.orientation_speed;
+      lowered.reason = "the tool turns " + formatDecimal(turn, 6) + " rad, at most " +
+                       formatDecimal(speed.orientation_speed, 6) + " rad/s";
+    }
+    for (int j = 0; j < arm.jointCount(); ++j) {
+      const double limit = speed.joint_velocity_fraction * arm.joint(j).max_velocity;
+      const double joint_time = std::abs(to.q[j] - from.q[j]) / limit;
+      if (joint_time > time) {
+        time = joint_time;
+        lowered.cause = SpeedLimitCause::kJointVelocity;
+        lowered.joint = j;
+        const char* unit =
+            arm.joint(j).type == kinematics::JointType::kRevolute ? " rad/s" : " m/s";
+        lowered.reason = "joint " + arm.joint(j).name + " moves " +
+                         formatDecimal(std::abs(to.q[j] - from.q[j]), 6) +
+                         " at most " + formatDecimal(limit, 6) + unit;
+      }
+    }
+    const double held = time > 0.0 ? distance / time : speed.tcp_speed;
+    timing.durations.push_back(time);
+    timing.speeds.push_back(time > programmed_time ? held : speed.tcp_speed);
+    timing.duration += time;
+    if (time > programmed_time) {
+      lowered.speed = held;
+      lowered.reason = "segment " + std::to_string(i) + ": TCP speed lowered from " +
+                       formatDecimal(speed.tcp_speed, 6) + " to " + formatDecimal(held, 6) +
+                       " m/s; " + lowered.reason;
+      timing.lowered.push_back(lowered);
+    }
+  }
+  return timing;
+}
+
+}  // namespace tw::planner
