@@ -1,7 +1,6 @@
 #include "planner/job_planner.hpp"
 
 #include <algorithm>
-#include <charconv>
 #include <cmath>
 #include <map>
 #include <memory>
@@ -13,6 +12,7 @@
 #include "kinematics/singularity.hpp"
 #include "planner/cell_collision_world.hpp"
 #include "planner/joint_trajectory.hpp"
+#include "planner/process_move_timing.hpp"
 #include "planner/program/sha256.hpp"
 
 namespace tw::planner {
@@ -21,14 +21,6 @@ namespace {
 using kinematics::JointVector;
 
 constexpr const char* kWorldFrame = "world";
-
-/// A speed [m/s] as mm/s with one decimal, independent of the locale.
-std::string millimetresPerSecond(double speed) {
-  char text[32];
-  const std::to_chars_result written =
-      std::to_chars(text, text + sizeof text, speed * 1000.0, std::chars_format::fixed, 1);
-  return std::string(text, written.ptr);
-}
 
 /// Every file the program depends on, sorted and without repeats.
 std::vector<InputFileHash> inputHashes(const Job& job) {
@@ -96,34 +88,6 @@ class ProgramBuilder {
   Eigen::Isometry3d X_WB_;
   double clock_ = 0.0;
 };
-
-/// Duration of a linear move at `speed` [m/s], no shorter than the slowest
-/// joint needs at its maximum velocity nor than the rotation needs at the
-/// orientation speed. The joint bound uses the joint change between the two
-/// targets, a lower bound on what the move needs.
-struct LinearTiming {
-  double duration = 0.0;
-  bool joint_limited = false;
-  int joint = -1;
-};
-
-LinearTiming timeLinear(const kinematics::ArmModel& arm, const JointVector& from,
-                        const JointVector& to, const Eigen::Isometry3d& X_from,
-                        const Eigen::Isometry3d& X_to, double speed, double orientation_speed) {
-  const double distance = (X_to.translation() - X_from.translation()).norm();
-  const double angle = Eigen::AngleAxisd(X_from.linear().transpose() * X_to.linear()).angle();
-  LinearTiming timing;
-  timing.duration = std::max(distance / speed, angle / orientation_speed);
-  for (int j = 0; j < arm.jointCount(); ++j) {
-    const double needed = std::abs(to[j] - from[j]) / arm.joint(j).max_velocity;
-    if (needed > timing.duration) {
-      timing.duration = needed;
-      timing.joint_limited = true;
-      timing.joint = j;
-    }
-  }
-  return timing;
-}
 
 const Tool& toolOf(const Job& job, const std::string& name) {
   const Tool* tool = job.cell.findTool(name);
@@ -220,8 +184,11 @@ PlanResult planJob(const Job& job, const PlanOptions& options) {
     const SolvedPose* previous = &seam.approach;
     bool process_on = false;
     const auto linear_move = [&](const SolvedPose& target, double speed, int waypoint) {
-      const LinearTiming timing = timeLinear(arm, previous->q, target.q, previous->X_XT,
-                                             target.X_XT, speed, options.orientation_speed);
+      ProcessSpeed programmed;
+      programmed.tcp_speed = speed;
+      programmed.orientation_speed = options.orientation_speed;
+      const ProcessMoveTiming timing =
+          timeProcessMove(arm, {{previous->q, previous->X_XT}, {target.q, target.X_XT}}, programmed);
       MotionRecord record;
       record.kind = MotionKind::kLinearMove;
       record.q = target.q;
@@ -232,10 +199,8 @@ PlanResult planJob(const Job& job, const PlanOptions& options) {
       record.duration = timing.duration;
       record.seam = seam.name;
       record.branch = words;
-      if (timing.joint_limited) {
-        const double distance = (target.X_XT.translation() - previous->X_XT.translation()).norm();
-        result.speed_limits.push_back(
-            {seam.name, waypoint, speed, distance / timing.duration, arm.joint(timing.joint).name});
+      for (const LoweredSpeed& lowered : timing.lowered) {
+        result.speed_limits.push_back({seam.name, waypoint, lowered});
       }
       builder.addMotion(record, world, workspace);
       previous = &target;
@@ -265,11 +230,8 @@ PlanResult planJob(const Job& job, const PlanOptions& options) {
   if (!complete) return result;
 
   for (const SpeedLimit& limit : result.speed_limits) {
-    program.warnings.push_back("seam " + limit.seam + " move to waypoint " +
-                               std::to_string(limit.waypoint) + ": TCP speed lowered from " +
-                               millimetresPerSecond(limit.programmed) + " to " +
-                               millimetresPerSecond(limit.held) + " mm/s (" + limit.joint +
-                               " at its velocity limit)");
+    program.warnings.push_back("seam " + limit.seam + ", move to waypoint " +
+                               std::to_string(limit.waypoint) + ": " + limit.lowered.reason);
   }
   for (const std::string& note : world.notes()) program.warnings.push_back(note);
   checkProgram(program, job.source);

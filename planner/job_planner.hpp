@@ -7,6 +7,7 @@
 
 #include "planner/job.hpp"
 #include "planner/job_solver.hpp"
+#include "planner/process_move_timing.hpp"
 #include "planner/program/program.hpp"
 #include "planner/transit_planner.hpp"
 
@@ -41,14 +42,12 @@ struct TransitFailure {
   TransitResult result;
 };
 
-/// A linear move that could not be run at its programmed TCP speed within
-/// the joint velocity limits, and the speed it gets instead.
+/// A linear move that could not be run at its programmed TCP speed, and
+/// what it gets instead (see timeProcessMove).
 struct SpeedLimit {
   std::string seam;
-  int waypoint = 0;              ///< index of the move's target pose in the seam
-  double programmed = 0.0;       ///< [m/s]
-  double held = 0.0;             ///< [m/s]
-  std::string joint;             ///< the joint at its velocity limit
+  int waypoint = 0;  ///< index of the move's target in the seam; the retract is waypoints.size()
+  LoweredSpeed lowered;
 };
 
 /// The result of planning a job: the seam solutions, then either a program

@@ -64,6 +64,7 @@ JobSolution solveJob(const Job& job, const SeamSolverOptions& options,
         setting.X_WB = cell.frames.X_W(cell.arm_frame);
         setting.X_WX = cell.frames.X_W(path.frame);
         setting.X_FT = cell.findTool(path.tool)->X_FT;
+        setting.reference = cell.home;
         solution.tasks[i] = solveSeam(path, setting, options, *workspace);
       }
     } catch (...) {

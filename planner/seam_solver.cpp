@@ -331,7 +331,7 @@ class SeamSearch {
         c.pred = -1;
         if (c.check == CheckState::kColliding) continue;
         if (l == 0) {
-          c.cost = 0.0;
+          c.cost = setting_.reference ? stepCost(*setting_.reference, c.q) : 0.0;
           continue;
         }
         const Layer& prev = layers_[l - 1];

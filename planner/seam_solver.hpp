@@ -1,6 +1,7 @@
 #pragma once
 
 #include <Eigen/Geometry>
+#include <optional>
 #include <variant>
 
 #include "collision/collision_workspace.hpp"
@@ -19,6 +20,11 @@ struct SeamSetting {
   Eigen::Isometry3d X_WB = Eigen::Isometry3d::Identity();  ///< arm base in the world
   Eigen::Isometry3d X_WX = Eigen::Isometry3d::Identity();  ///< seam frame in the world
   Eigen::Isometry3d X_FT = Eigen::Isometry3d::Identity();  ///< TCP in the flange frame
+  /// Where the arm comes from (e.g. its home position), when known: the
+  /// weighted joint motion from it to the approach start is added to the
+  /// cost, so that of otherwise equal branches the one nearest to it wins
+  /// (a programmer expects the arm to face its work, not to reach back).
+  std::optional<kinematics::JointVector> reference;
 };
 
 /// A solved seam, or why it cannot be solved (never both, never neither).

@@ -1,0 +1,196 @@
+// The whole job end to end through the built executable: plan the sample,
+// then re-verify the written motion file by routes of its own (forward
+// kinematics, the seam geometry, the collision world, the joint limits and
+// velocities), and check determinism and exit codes.
+#include <catch2/catch.hpp>
+
+#include <filesystem>
+
+#include "collision/collision_world.hpp"
+#include "kinematics/forward_kinematics.hpp"
+#include "planner/cell_collision_world.hpp"
+#include "planner/job_loader.hpp"
+#include "planner/tool_path_builder.hpp"
+#include "postproc/motion_text_reader.hpp"
+#include "tests/cli/cli_test_support.hpp"
+
+namespace tw::cli {
+namespace {
+
+constexpr double kPi = 3.14159265358979323846;
+// The bar of the end-to-end check (issue text): 0.1 mm and 0.1°, far above
+// the motion text's printed precision (0.001 mm, 1e-9 in the quaternion).
+constexpr double kPositionTolerance = 0.0001;
+constexpr double kAngleTolerance = 0.1 * kPi / 180.0;
+
+std::string outputDirectory(const std::string& name) {
+  const std::string directory = std::string(TW_TEST_OUTPUT_DIR) + "/" + name;
+  std::filesystem::remove_all(directory);
+  return directory;
+}
+
+double angleBetween(const Eigen::Vector3d& a, const Eigen::Vector3d& b) {
+  return std::atan2(a.cross(b).norm(), a.dot(b));
+}
+
+/// Every motion record of the sample program, checked against the job it
+/// came from.
+void verifyProgram(const planner::Program& program, const planner::Job& job) {
+  const planner::Cell& cell = job.cell;
+  const kinematics::ArmModel& arm = cell.arm;
+  const planner::Tool& tool = *cell.findTool("torch");
+  const Eigen::Isometry3d X_WB = cell.frames.X_W(cell.arm_frame);
+  const collision::CollisionWorld world = planner::buildCellCollisionWorld(cell, tool);
+  collision::CollisionWorkspace workspace(world);
+
+  // The poses each seam may take: its approach, waypoints and retract, in
+  // the seam frame; the spin about the tool axis is free.
+  std::map<std::string, planner::ToolPath> paths;
+  for (const planner::JobTask& task : job.tasks) {
+    const planner::SeamSpec& seam = std::get<planner::SeamSpec>(task);
+    paths.emplace(seam.name, planner::buildToolPath(seam, *cell.findTool(seam.tool)));
+  }
+
+  int motions = 0;
+  const kinematics::JointVector* previous = nullptr;
+  for (const planner::ProgramRecord& record : program.records) {
+    const planner::MotionRecord* motion = std::get_if<planner::MotionRecord>(&record);
+    if (motion == nullptr) continue;
+    ++motions;
+    CAPTURE(motions, motion->q.transpose(), motion->seam, motion->frame);
+    // File values are printed to 4 decimals of a degree: the limits hold
+    // to that rounding.
+    CHECK(((motion->q - arm.lowerLimits()).array() >= -1e-5).all());
+    CHECK(((arm.upperLimits() - motion->q).array() >= -1e-5).all());
+
+    const Eigen::Isometry3d X_WT = X_WB * kinematics::flangePose(arm, motion->q) * tool.X_FT;
+    const Eigen::Isometry3d X_WR =
+        motion->frame == "world" ? Eigen::Isometry3d::Identity() : cell.frames.X_W(motion->frame);
+    const Eigen::Isometry3d X_WT_file = X_WR * motion->X_RT;
+    CHECK((X_WT.translation() - X_WT_file.translation()).norm() < kPositionTolerance);
+    CHECK(Eigen::AngleAxisd(X_WT.linear().transpose() * X_WT_file.linear()).angle() <
+          kAngleTolerance);
+
+    if (!motion->seam.empty()) {
+      const planner::ToolPath& path = paths.at(motion->seam);
+      std::vector<Eigen::Isometry3d> poses{path.approach, path.retract};
+      for (const planner::Waypoint& waypoint : path.waypoints) poses.push_back(waypoint.X_XT);
+      bool on_seam = false;
+      for (const Eigen::Isometry3d& X_XT : poses) {
+        on_seam = on_seam ||
+                  ((X_XT.translation() - motion->X_RT.translation()).norm() < kPositionTolerance &&
+                   angleBetween(X_XT.linear().col(2), motion->X_RT.linear().col(2)) < kAngleTolerance);
+      }
+      CHECK(on_seam);
+    }
+    // The solver and the transit planner keep the margin at every target.
+    CHECK(world.checkState(motion->q, workspace).valid());
+    // Average joint speed over each move within the joint's limit (the
+    // limit is on the peak; the average can only be lower).
+    if (previous != nullptr && motion->duration > 0.0) {
+      for (int j = 0; j < arm.jointCount(); ++j) {
+        CHECK(std::abs(motion->q[j] - (*previous)[j]) / motion->duration <=
+              arm.joint(j).max_velocity * (1.0 + 1e-3));
+      }
+    }
+    previous = &motion->q;
+  }
+  CHECK(motions > 20);
+}
+
+}  // namespace
+
+TEST_CASE("plan writes a sample program that re-verifies on its own", "[cli][plan][e2e]") {
+  const std::string directory = outputDirectory("plan_sample");
+  const test::ToolRun run = test::runTool("plan samples/jobs/bracket_welds.xml --output '" + directory + "'");
+  CAPTURE(run.output);
+  REQUIRE(run.exit_code == 0);
+  CHECK_THAT(run.output, Catch::Contains("cycle time") && Catch::Contains("CAUTION"));
+  const planner::Job job =
+      planner::loadJob(std::string(TW_SOURCE_DIR) + "/samples/jobs/bracket_welds.xml");
+  verifyProgram(postproc::readMotionTextFile(directory + "/bracket_welds.twm"), job);
+  for (const char* file : {"bracket_welds_joints.csv", "bracket_welds_summary.json",
+                           "bracket_welds_report.html"}) {
+    CHECK(std::filesystem::exists(directory + "/" + file));
+  }
+}
+
+TEST_CASE("plan after a fixture move re-verifies, and compare shows the change",
+          "[cli][plan][e2e]") {
+  const std::string before = outputDirectory("plan_before_move");
+  const std::string after = outputDirectory("plan_after_move");
+  REQUIRE(test::runTool("plan samples/jobs/bracket_welds.xml --output '" + before + "'").exit_code == 0);
+  const test::ToolRun run =
+      test::runTool("plan samples/jobs/bracket_welds_moved.xml --output '" + after + "'");
+  CAPTURE(run.output);
+  REQUIRE(run.exit_code == 0);
+  const planner::Job moved =
+      planner::loadJob(std::string(TW_SOURCE_DIR) + "/samples/jobs/bracket_welds_moved.xml");
+  verifyProgram(postproc::readMotionTextFile(after + "/bracket_welds.twm"), moved);
+
+  const test::ToolRun compare = test::runTool("compare '" + before + "/bracket_welds.twm' '" + after +
+                                        "/bracket_welds.twm' --fail-on-change");
+  CAPTURE(compare.output);
+  CHECK(compare.exit_code == 3);
+  CHECK_THAT(compare.output, Catch::Contains("largest TCP deviation"));
+}
+
+TEST_CASE("plan gives byte-identical outputs on repeat and at any thread count",
+          "[cli][plan][determinism]") {
+  const std::string one = outputDirectory("plan_threads_1");
+  const std::string two = outputDirectory("plan_threads_2");
+  REQUIRE(test::runTool("plan samples/jobs/bracket_welds.xml --threads 1 --output '" + one + "'").exit_code == 0);
+  REQUIRE(test::runTool("plan samples/jobs/bracket_welds.xml --threads 2 --output '" + two + "'").exit_code == 0);
+  for (const char* file : {"bracket_welds.twm", "bracket_welds_joints.csv",
+                           "bracket_welds_summary.json", "bracket_welds_report.html"}) {
+    CAPTURE(file);
+    CHECK(test::readText(one + "/" + file) == test::readText(two + "/" + file));
+  }
+}
+
+TEST_CASE("plan and check exit with 3 for an infeasible job and write nothing",
+          "[cli][plan][exit-codes]") {
+  // The sample job with its first seam moved 5 m away from the arm.
+  std::string job = test::readText(std::string(TW_SOURCE_DIR) + "/samples/jobs/bracket_welds.xml");
+  const std::string samples = std::string(TW_SOURCE_DIR) + "/samples/";
+  const auto replace = [&](const std::string& from, const std::string& to) {
+    REQUIRE(job.find(from) != std::string::npos);
+    job.replace(job.find(from), from.size(), to);
+  };
+  replace("../cells/", samples + "cells/");
+  replace("../seams/corner_left.csv", test::writeTestFile("far_seam.csv",
+                                                    "x_mm,y_mm,z_mm,nx,ny,nz\n"
+                                                    "5000,0,0,0,0,1\n5100,0,0,0,0,1\n"));
+  replace("../seams/", samples + "seams/");
+  replace("../seams/", samples + "seams/");
+  replace("../seams/", samples + "seams/");
+  const std::string directory = outputDirectory("plan_infeasible");
+  replace("../../out/bracket-welds", directory);
+  const std::string job_file = test::writeTestFile("infeasible_job.xml", job);
+
+  const test::ToolRun plan = test::runTool("plan '" + job_file + "'");
+  CAPTURE(plan.output);
+  CHECK(plan.exit_code == 3);
+  CHECK_THAT(plan.output, Catch::Contains("out of reach") && Catch::Contains("no program written"));
+  CHECK_FALSE(std::filesystem::exists(directory));
+
+  const test::ToolRun check = test::runTool("check '" + job_file + "'");
+  CAPTURE(check.output);
+  CHECK(check.exit_code == 3);
+  CHECK_THAT(check.output, Catch::Contains("corner-right") && Catch::Contains("reachable"));
+}
+
+TEST_CASE("check passes the sample job; plan and check refuse bad input with exit code 2",
+          "[cli][plan][exit-codes]") {
+  const test::ToolRun check = test::runTool("check samples/jobs/bracket_welds.xml");
+  CAPTURE(check.output);
+  CHECK(check.exit_code == 0);
+  CHECK_THAT(check.output, Catch::Contains("every seam is reachable"));
+  CHECK(test::runTool("plan samples/jobs/no_such_job.xml").exit_code == 2);
+  CHECK(test::runTool("check samples/jobs/no_such_job.xml").exit_code == 2);
+  CHECK(test::runTool("plan samples/jobs/bracket_welds.xml --threads 0").exit_code == 2);
+  CHECK(test::runTool("plan --help").exit_code == 0);
+  CHECK(test::runTool("check --help").exit_code == 0);
+}
+
+}  // namespace tw::cli
