@@ -4,7 +4,7 @@
 set -euo pipefail
 
 packages=(
-  build-essential cmake pkg-config
+  build-essential cmake pkg-config time
   libeigen3-dev libtinyxml2-dev libcli11-dev nlohmann-json3-dev
   libfcl-dev libassimp-dev
   libompl-dev libboost-serialization-dev libboost-filesystem-dev libboost-system-dev

@@ -48,15 +48,20 @@ inline std::string readText(const std::string& path) {
   return text.str();
 }
 
-/// The text of the sample welding cell with its arm file named by absolute
-/// path, so that a copy loads from anywhere.
+/// The text of the sample welding cell with its arm and mesh files named by
+/// absolute path, so that a copy loads from anywhere.
 inline std::string sampleCellText() {
   std::string text = readText(std::string(TW_SOURCE_DIR) + "/samples/cells/bracket_weld_cell.xml");
-  const std::string from = "file=\"../arms/weld_arm_1400.xml\"";
-  const std::size_t at = text.find(from);
-  if (at == std::string::npos) throw std::runtime_error("the sample cell lacks " + from);
-  return text.replace(at, from.size(),
-                      std::string("file=\"") + TW_SOURCE_DIR + "/samples/arms/weld_arm_1400.xml\"");
+  const auto make_absolute = [&text](const std::string& from, const std::string& to) {
+    const std::size_t at = text.find(from);
+    if (at == std::string::npos) throw std::runtime_error("the sample cell lacks " + from);
+    text.replace(at, from.size(), to);
+  };
+  make_absolute("file=\"../arms/weld_arm_1400.xml\"",
+                std::string("file=\"") + TW_SOURCE_DIR + "/samples/arms/weld_arm_1400.xml\"");
+  make_absolute("file=\"meshes/gusset.obj\"",
+                std::string("file=\"") + TW_SOURCE_DIR + "/samples/cells/meshes/gusset.obj\"");
+  return text;
 }
 
 }  // namespace tw::cli::test

@@ -205,16 +205,21 @@ TEST_CASE("refit --write-cell on the sample cell gives the committed moved cell"
           "[cli][refit][samples]") {
   // samples/cells/bracket_weld_cell_moved.xml was written by this command;
   // the test keeps the sample and the command in step. The copy names its
-  // arm file by absolute path (sampleCellText); that is undone to compare.
+  // arm and mesh files by absolute path (sampleCellText); that is undone to
+  // compare.
   const std::string copy = cellCopy("refit_moved_sample.xml");
   const test::ToolRun run =
       runTool("refit '" + copy + "' --frame bracket --points " + kSamplePoints + " --write-cell");
   CAPTURE(run.output);
   CHECK(run.exit_code == 0);
   std::string written = test::readText(copy);
-  const std::string absolute = std::string(TW_SOURCE_DIR) + "/samples/arms/weld_arm_1400.xml";
-  REQUIRE(written.find(absolute) != std::string::npos);
-  written.replace(written.find(absolute), absolute.size(), "../arms/weld_arm_1400.xml");
+  for (const auto& [absolute, relative] :
+       {std::pair<std::string, std::string>{std::string(TW_SOURCE_DIR) + "/samples/arms/weld_arm_1400.xml",
+                                            "../arms/weld_arm_1400.xml"},
+        {std::string(TW_SOURCE_DIR) + "/samples/cells/meshes/gusset.obj", "meshes/gusset.obj"}}) {
+    REQUIRE(written.find(absolute) != std::string::npos);
+    written.replace(written.find(absolute), absolute.size(), relative);
+  }
   CHECK(written ==
         test::readText(std::string(TW_SOURCE_DIR) + "/samples/cells/bracket_weld_cell_moved.xml"));
 }
