@@ -12,6 +12,7 @@
 
 #include "kinematics/input_error.hpp"
 #include "planner/cli/exit_codes.hpp"
+#include "planner/cli/report_geometry.hpp"
 #include "planner/job_loader.hpp"
 #include "planner/job_planner.hpp"
 #include "planner/report_text.hpp"
@@ -136,6 +137,8 @@ std::vector<std::string> writeOutputs(const planner::Job& job, const planner::Pr
                        "<output writer=\"template\">: job files cannot name a template file yet");
     }
   }
+  postproc::WriteOptions options;
+  options.report_cell = reportCellOf(job.cell, program);
   std::vector<std::string> written;
   for (const planner::OutputRequest& request : job.outputs) {
     // The loader resolved each path against the job's output directory; an
@@ -145,7 +148,6 @@ std::vector<std::string> writeOutputs(const planner::Job& job, const planner::Pr
             ? std::filesystem::path(request.path)
             : std::filesystem::path(directory_override) / std::filesystem::path(request.path).filename();
     std::filesystem::create_directories(path.parent_path());
-    postproc::WriteOptions options;
     options.output_name = path.string();
     postproc::writeProgramFile(registry.get(request.writer), program, options, path);
     written.push_back(path.string());
