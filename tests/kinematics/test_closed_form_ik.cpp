@@ -256,18 +256,23 @@ TEST_CASE("Edge cases give exact answers or clear outcomes, never NaN", "[ik][ed
     }
   }
 
+  // The sample arm with some limits replaced.
+  const auto withLimits = [&](const std::vector<JointSpec>& limits) {
+    ArmDescription description;
+    description.name = "changed-limits";
+    description.ortho_parallel = g;
+    description.joints = orthoParallelChain(g, limits);
+    description.X_LF = arm.flangeInLastLink();
+    return ArmModel(description);
+  };
+
   SECTION("a joint limit exactly at the solution is inside the limits") {
     JointVector q(6);
     q << 0.3, 0.2, 0.1, 0.7, 0.5, -0.4;
-    ArmDescription description;
-    description.name = "limit-at-solution";
-    description.ortho_parallel = g;
     std::vector<JointSpec> limits = arm.joints();
     limits[0].upper = q[0];
     limits[4].lower = q[4];
-    description.joints = orthoParallelChain(g, limits);
-    description.X_LF = arm.flangeInLastLink();
-    const ArmModel limited(description);
+    const ArmModel limited = withLimits(limits);
     const IkSolutions result = OrthoParallelSolver(limited).solve(flangePose(limited, q));
     const BranchOutcome& outcome = result.branches[ArmBranch{}.index()];
     REQUIRE(outcome.status == BranchStatus::kSolved);
@@ -280,15 +285,10 @@ TEST_CASE("Edge cases give exact answers or clear outcomes, never NaN", "[ik][ed
   SECTION("a branch outside the limits says which joint and by how much") {
     JointVector q(6);
     q << 0.3, 0.2, 0.1, 0.7, 0.5, -0.4;
-    ArmDescription description;
-    description.name = "tight-axis-5";
-    description.ortho_parallel = g;
     std::vector<JointSpec> limits = arm.joints();
     limits[4].lower = 0.6;  // axis 5 may only bend from 0.6 to 1.0 rad
     limits[4].upper = 1.0;
-    description.joints = orthoParallelChain(g, limits);
-    description.X_LF = arm.flangeInLastLink();
-    const ArmModel limited(description);
+    const ArmModel limited = withLimits(limits);
     const IkSolutions result = OrthoParallelSolver(limited).solve(flangePose(limited, q));
     const BranchOutcome& outcome = result.branches[ArmBranch{}.index()];
     REQUIRE(outcome.status == BranchStatus::kJointLimit);
