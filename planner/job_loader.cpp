@@ -11,16 +11,8 @@
 namespace tw::planner {
 namespace {
 
-using kinematics::XmlFile;
-using kinematics::checkFormatHeader;
-using kinematics::kDegToRad;
-using kinematics::kMmToM;
-using kinematics::readLength;
-using kinematics::readLengthOr;
-using kinematics::readNumbers;
-using kinematics::readPose;
-using kinematics::readShape;
-using kinematics::resolvePath;
+// The shared XML readers and unit constants (kinematics/xml_values.hpp).
+using namespace kinematics;
 using tinyxml2::XMLElement;
 
 // Turnaround acceleration for the default lead [m/s²]: the worked example of
