@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "kinematics/arc_tangent.hpp"
 #include "kinematics/input_error.hpp"
 
 namespace tw::kinematics {
@@ -17,25 +18,49 @@ constexpr double kCosineRounding = 1e-12;
 // onto it): far below any drive's resolution, above rounding of the formulas.
 constexpr double kLimitTolerance = 1e-9;
 
-/// Wraps to (−π, π]. The formulas give angles within a few turns, so
-/// stepping is cheaper than std::remainder here.
+/// Wraps to (−π, π]. The formulas give angles within about a turn of it, so
+/// one branch-free step each way does it for ordinary zero offsets; the loops
+/// catch offsets beyond a turn.
 double wrapToPi(double angle) {
+  angle -= angle > kPi ? kTwoPi : 0.0;
+  angle += angle <= -kPi ? kTwoPi : 0.0;
   while (angle > kPi) angle -= kTwoPi;
   while (angle <= -kPi) angle += kTwoPi;
   return angle;
 }
 
-/// acos that reports out-of-range arguments instead of returning NaN.
-bool safeAcos(double cosine, double& angle) {
+/// A triangle angle from its cosine, as (cosine, sine, angle in [0, π]);
+/// false for a cosine beyond ±1 by more than rounding (no such triangle).
+/// The sine comes from (1 − c)(1 + c), which keeps the digits 1 − c² loses
+/// near ±1, and the angle from atan2, which is accurate there, unlike acos.
+struct TriangleAngle {
+  double cosine = 1.0;
+  double sine = 0.0;
+  double angle = 0.0;
+};
+bool triangleAngle(double cosine, TriangleAngle& out) {
   if (std::abs(cosine) > 1.0 + kCosineRounding) return false;
-  angle = std::acos(std::clamp(cosine, -1.0, 1.0));
+  out.cosine = std::clamp(cosine, -1.0, 1.0);
+  out.sine = std::sqrt((1.0 - out.cosine) * (1.0 + out.cosine));
+  out.angle = arcTangent2(out.sine, out.cosine);
   return true;
 }
 
-/// The geometric angles θ1..θ6 of one branch before mapping to joint values.
-using Angles = Eigen::Matrix<double, 6, 1>;
-
 }  // namespace
+
+inline void OrthoParallelSolver::findTurns(const JointRange& range, double q, TurnValues& turns) {
+  // Branch-free over the three possible candidates: which of them lies in
+  // range depends on the pose, so branches here were mispredicted often.
+  turns.count = 0;
+  double value = q + range.first_offset;
+  for (int candidate = 0; candidate < 3; ++candidate, value += kTwoPi) {
+    const bool inside = (candidate < range.candidates) & (value >= range.lower_tolerant) &
+                        (value <= range.upper_tolerant);
+    turns.value[static_cast<std::size_t>(std::min(turns.count, 2))] =
+        std::clamp(value, range.lower, range.upper);
+    turns.count += inside ? 1 : 0;
+  }
+}
 
 const char* toString(BranchStatus status) {
   switch (status) {
@@ -59,11 +84,16 @@ OrthoParallelSolver::OrthoParallelSolver(const ArmModel& arm) : arm_(arm) {
   forearm_angle_ = std::atan2(g_.a2, g_.c3);
   sin_forearm_ = g_.a2 / forearm_length_;
   for (int j = 0; j < 6; ++j) {
-    lower_[j] = arm.joint(j).lower;
-    upper_[j] = arm.joint(j).upper;
+    JointRange& range = ranges_[j];
+    range.lower = arm.joint(j).lower;
+    range.upper = arm.joint(j).upper;
     // Wrapped values lie in (−π, π]; these turns can bring one into range.
-    first_turn_[j] = static_cast<int>(std::ceil((arm.joint(j).lower - kLimitTolerance - kPi) / kTwoPi));
-    last_turn_[j] = static_cast<int>(std::floor((arm.joint(j).upper + kLimitTolerance + kPi) / kTwoPi));
+    const int first_turn = static_cast<int>(std::ceil((range.lower - kLimitTolerance - kPi) / kTwoPi));
+    const int last_turn = static_cast<int>(std::floor((range.upper + kLimitTolerance + kPi) / kTwoPi));
+    range.lower_tolerant = range.lower - kLimitTolerance;
+    range.upper_tolerant = range.upper + kLimitTolerance;
+    range.first_offset = first_turn * kTwoPi;
+    range.candidates = std::max(0, last_turn - first_turn + 1);
   }
   cos_forearm_ = g_.c3 / forearm_length_;
 }
@@ -99,6 +129,9 @@ void OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF, const IkOptions& 
   const double sin_theta4_reference = std::sin(theta4_reference);
   const double cos_theta4_reference = std::cos(theta4_reference);
 
+  // Every in-limit value of each joint per branch; the solutions are their
+  // combinations, written in one pass once all branches are known.
+  std::array<std::array<TurnValues, 6>, 8> branch_turns;
   for (int shoulder = 0; shoulder < 2; ++shoulder) {
     const bool front = shoulder == 0;
     // θ1 = atan2(y, x) ∓ atan2(b, r) (− π behind): its sine and cosine follow
@@ -112,32 +145,29 @@ void OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF, const IkOptions& 
       c1 = front ? (x * radial + y * g_.b) / planar_squared : -(x * radial - y * g_.b) / planar_squared;
       s1 = front ? (y * radial - x * g_.b) / planar_squared : -(y * radial + x * g_.b) / planar_squared;
     }
-    const double theta1 = std::atan2(s1, c1);
+    const double theta1 = arcTangent2(s1, c1);
     // Wrist centre in the arm plane, from axis 2: forward distance and height.
     const double forward = front ? radial - g_.a1 : -(radial + g_.a1);
     const double distance_squared = forward * forward + height * height;
     const double distance = std::sqrt(distance_squared);
     const double cos_bend = (distance_squared - g_.c2 * g_.c2 - k * k) / (2.0 * g_.c2 * k);
     const double cos_lag = (distance_squared + g_.c2 * g_.c2 - k * k) / (2.0 * distance * g_.c2);
-    double elbow_bend = 0.0;  // |θ3 + forearm angle|
-    double shoulder_lag = 0.0;
-    if (distance < kLimitTolerance || !safeAcos(cos_bend, elbow_bend) ||
-        !safeAcos(cos_lag, shoulder_lag)) {
+    TriangleAngle bend;  // |θ3 + forearm angle|
+    TriangleAngle lag;
+    if (distance < kLimitTolerance || !triangleAngle(cos_bend, bend) || !triangleAngle(cos_lag, lag)) {
       continue;
     }
-    const double direction = std::atan2(forward, height);
+    const double elbow_bend = bend.angle;
+    const double shoulder_lag = lag.angle;
+    const double direction = arcTangent2(forward, height);
     // θ2 + θ3 = (direction − forearm angle) ± (bend − lag): sines and cosines
     // of both parts from the triangle's sides.
     const double sin_direction = forward / distance;
     const double cos_direction = height / distance;
     const double sin_d = sin_direction * cos_forearm_ - cos_direction * sin_forearm_;
     const double cos_d = cos_direction * cos_forearm_ + sin_direction * sin_forearm_;
-    const double sin_bend = std::sin(elbow_bend);
-    const double sin_lag = std::sin(shoulder_lag);
-    const double cb = std::cos(elbow_bend);
-    const double cl = std::cos(shoulder_lag);
-    const double sin_e = sin_bend * cl - cb * sin_lag;
-    const double cos_e = cb * cl + sin_bend * sin_lag;
+    const double sin_e = bend.sine * lag.cosine - bend.cosine * lag.sine;
+    const double cos_e = bend.cosine * lag.cosine + bend.sine * lag.sine;
 
     for (const bool elbow_up : {true, false}) {
       // A positive bend puts the elbow above the shoulder–wrist line when the
@@ -160,78 +190,102 @@ void OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF, const IkOptions& 
       // rounding), which saves four sincos calls per arm branch.
       const double s5 = std::sqrt(W(0, 2) * W(0, 2) + W(1, 2) * W(1, 2));
       const double c5 = W(2, 2);
-      const double theta5 = std::atan2(s5, c5);
+      const double theta5 = arcTangent2(s5, c5);
       const bool singular = s5 < options.wrist_singular_sine;
-      const double theta4 = singular ? theta4_reference : std::atan2(W(1, 2), W(0, 2));
+      const double theta4 = singular ? theta4_reference : arcTangent2(W(1, 2), W(0, 2));
       const double s4 = singular ? sin_theta4_reference : W(1, 2) / s5;
       const double c4 = singular ? cos_theta4_reference : W(0, 2) / s5;
       // Axis 6 given axes 4 and 5, so that the pose is exact whatever the
       // accuracy of axis 4 near the singularity: Rz(θ6) = Ry(θ5)ᵀ Rz(θ4)ᵀ W.
       const double m00 = c5 * (c4 * W(0, 0) + s4 * W(1, 0)) - s5 * W(2, 0);
       const double m10 = -s4 * W(0, 0) + c4 * W(1, 0);
-      const double theta6 = std::atan2(m10, m00);
+      const double theta6 = arcTangent2(m10, m00);
+
+      // Axes 1–3 are shared by both wrist branches: map and expand them once.
+      std::array<double, 6> q;
+      std::array<TurnValues, 3> arm_turns;
+      const double arm_theta[3] = {theta1, theta2, theta3};
+      int arm_limit_joint = -1;
+      for (int j = 0; j < 3; ++j) {
+        q[j] = wrapToPi(g_.sign[j] * (arm_theta[j] - g_.zero_offset[j]));
+        findTurns(ranges_[j], q[j], arm_turns[j]);
+        if (arm_turns[j].count == 0 && arm_limit_joint < 0) arm_limit_joint = j;
+      }
 
       for (int flip = 0; flip < 2; ++flip) {
-        Angles theta;
-        if (flip == 0) {
-          theta << theta1, theta2, theta3, theta4, theta5, theta6;
-        } else {
-          theta << theta1, theta2, theta3, theta4 + kPi, -theta5, theta6 - kPi;
-        }
+        // The flipped wrist reaches the same rotation with θ5 negated and
+        // axes 4 and 6 half a turn round.
+        const double wrist_theta[3] = {flip == 0 ? theta4 : theta4 + kPi,
+                                       flip == 0 ? theta5 : -theta5,
+                                       flip == 0 ? theta6 : theta6 - kPi};
         ArmBranch branch;
         branch.shoulder = front ? ShoulderSide::kFront : ShoulderSide::kBack;
         branch.elbow = elbow_up ? ElbowSide::kUp : ElbowSide::kDown;
         branch.wrist = flip == 0 ? WristSide::kNotFlipped : WristSide::kFlipped;
         BranchOutcome& outcome = out.branches[branch.index()];
         outcome.wrist_singular = singular;
-        outcome.q.resize(6);
-        for (int j = 0; j < 6; ++j) {
-          outcome.q[j] = wrapToPi(g_.sign[j] * (theta[j] - g_.zero_offset[j]));
+        std::array<TurnValues, 6>& turns = branch_turns[branch.index()];
+        std::copy(arm_turns.begin(), arm_turns.end(), turns.begin());
+        int limit_joint = arm_limit_joint;
+        for (int j = 3; j < 6; ++j) {
+          q[j] = wrapToPi(g_.sign[j] * (wrist_theta[j - 3] - g_.zero_offset[j]));
+          if (limit_joint >= 0) continue;
+          findTurns(ranges_[j], q[j], turns[j]);
+          if (turns[j].count == 0) limit_joint = j;
         }
-        expandTurns(outcome, out);
+        outcome.q = Eigen::Map<const Eigen::Matrix<double, 6, 1>>(q.data());
+        if (limit_joint >= 0) {
+          outcome.status = BranchStatus::kJointLimit;
+          outcome.limit_joint = limit_joint;
+          outcome.limit_value = nearestToRange(limit_joint, q[limit_joint]);
+          continue;
+        }
+        outcome.status = BranchStatus::kSolved;
       }
     }
   }
+  appendSolutions(branch_turns, out);
 }
 
-void OrthoParallelSolver::expandTurns(BranchOutcome& outcome, IkSolutions& out) const {
-  // Per joint, the equivalent values q + 2πk inside the limits (at most 3,
-  // since ranges are at most 720°); the candidate turns k are precomputed.
-  std::array<std::array<double, 3>, 6> values;
-  std::array<int, 6> counts{};
-  for (int j = 0; j < 6; ++j) {
-    const double q = outcome.q[j];
-    double value = q + first_turn_[j] * kTwoPi;
-    for (int turn = first_turn_[j]; turn <= last_turn_[j]; ++turn, value += kTwoPi) {
-      if (value < lower_[j] - kLimitTolerance) continue;
-      if (value > upper_[j] + kLimitTolerance) break;
-      values[j][counts[j]++] = std::clamp(value, lower_[j], upper_[j]);
-    }
-    if (counts[j] == 0) {
-      // Report the equivalent value closest to the range.
-      const double below = q + std::floor((lower_[j] - q) / kTwoPi) * kTwoPi;
-      const double above = below + kTwoPi;
-      outcome.status = BranchStatus::kJointLimit;
-      outcome.limit_joint = j;
-      outcome.limit_value = (lower_[j] - below) < (above - upper_[j]) ? below : above;
-      return;
-    }
-  }
-  outcome.status = BranchStatus::kSolved;
-  outcome.first_solution = static_cast<int>(out.solutions.size());
-  const int branch_index = outcome.branch.index();
-  std::array<int, 6> pick{};
-  while (true) {
-    IkSolution& solution = out.solutions.emplace_back();
+double OrthoParallelSolver::nearestToRange(int joint, double q) const {
+  const JointRange& range = ranges_[joint];
+  const double below = q + std::floor((range.lower - q) / kTwoPi) * kTwoPi;
+  const double above = below + kTwoPi;
+  return (range.lower - below) < (above - range.upper) ? below : above;
+}
+
+void OrthoParallelSolver::appendSolutions(
+    const std::array<std::array<TurnValues, 6>, 8>& branch_turns, IkSolutions& out) const {
+  for (BranchOutcome& outcome : out.branches) {
+    if (outcome.status != BranchStatus::kSolved) continue;
+    const int branch_index = outcome.branch.index();
+    const std::array<TurnValues, 6>& turns = branch_turns[branch_index];
+    // Each solution starts from the first value of every joint; only the
+    // joints with several values (axes 4 and 6, typically) then vary. Copying
+    // a prepared solution is cheaper than constructing each in place.
+    IkSolution solution;
     solution.branch_index = branch_index;
     solution.q.resize(6);
-    for (int j = 0; j < 6; ++j) solution.q[j] = values[j][pick[j]];
-    // Odometer over the per-joint choices, last joint fastest.
-    int j = 5;
-    while (j >= 0 && ++pick[j] == counts[j]) pick[j--] = 0;
-    if (j < 0) break;
+    std::array<int, 6> varying;
+    int varying_count = 0;
+    int count = 1;
+    for (int j = 0; j < 6; ++j) {
+      solution.q[j] = turns[j].value[0];
+      count *= turns[j].count;
+      if (turns[j].count > 1) varying[varying_count++] = j;
+    }
+    outcome.first_solution = static_cast<int>(out.solutions.size());
+    outcome.solution_count = count;
+    std::array<int, 6> pick{};
+    for (int s = 0; s < count; ++s) {
+      for (int v = 0; v < varying_count; ++v) {
+        solution.q[varying[v]] = turns[varying[v]].value[pick[v]];
+      }
+      out.solutions.push_back(solution);
+      // Odometer over the varying joints, the last fastest.
+      for (int v = varying_count - 1; v >= 0 && ++pick[v] == turns[varying[v]].count; --v) pick[v] = 0;
+    }
   }
-  outcome.solution_count = static_cast<int>(out.solutions.size()) - outcome.first_solution;
 }
 
 }  // namespace tw::kinematics

@@ -84,9 +84,34 @@ class OrthoParallelSolver {
   const ArmModel& arm() const { return arm_; }
 
  private:
-  /// Fills outcome.status and appends every in-limit multi-turn equivalent
-  /// of outcome.q to out.solutions.
-  void expandTurns(BranchOutcome& outcome, IkSolutions& out) const;
+  /// One joint's limits, as the multi-turn expansion uses them.
+  struct JointRange {
+    double lower = 0.0;
+    double upper = 0.0;
+    /// Values up to this far outside count as at the limit.
+    double lower_tolerant = 0.0;
+    double upper_tolerant = 0.0;
+    /// The first candidate q + 2πk, q in (−π, π], that may be in range is
+    /// q + first_offset; `candidates` (at most 3) values one turn apart follow.
+    double first_offset = 0.0;
+    int candidates = 0;
+  };
+  /// Every value q + 2πk of one joint within its limits: at most 3, since
+  /// ranges are at most 720°; values within tolerance of a limit are clamped
+  /// onto it.
+  struct TurnValues {
+    std::array<double, 3> value;
+    int count = 0;
+  };
+  static void findTurns(const JointRange& range, double q, TurnValues& turns);
+  /// The equivalent value of a joint nearest to its range, for the report
+  /// of a branch that has none inside.
+  double nearestToRange(int joint, double q) const;
+  /// For every solved branch, in branch order, appends each combination of
+  /// its per-joint values (last joint varying fastest) and records where
+  /// they are.
+  void appendSolutions(const std::array<std::array<TurnValues, 6>, 8>& branch_turns,
+                       IkSolutions& out) const;
 
   const ArmModel& arm_;
   OrthoParallelGeometry g_;
@@ -95,11 +120,7 @@ class OrthoParallelSolver {
   double forearm_angle_;    ///< atan2(a2, c3)
   double sin_forearm_;
   double cos_forearm_;
-  std::array<double, 6> lower_;  ///< joint limits, copied for locality
-  std::array<double, 6> upper_;
-  /// Per joint, the turns k for which q + 2πk, q in (−π, π], may be in range.
-  std::array<int, 6> first_turn_;
-  std::array<int, 6> last_turn_;
+  std::array<JointRange, 6> ranges_;  ///< copied from the arm for locality
 };
 
 }  // namespace tw::kinematics
