@@ -49,10 +49,16 @@ bool triangleAngle(double cosine, TriangleAngle& out) {
 }  // namespace
 
 inline void OrthoParallelSolver::findTurns(const JointRange& range, double q, TurnValues& turns) {
-  // Branch-free over the three possible candidates: which of them lies in
-  // range depends on the pose, so branches here were mispredicted often.
-  turns.count = 0;
+  // Which candidates lie in range depends on the pose, so the tests are
+  // folded into counts instead of branches (those were often mispredicted);
+  // whether a joint has one candidate or several is fixed per arm.
   double value = q + range.first_offset;
+  if (range.candidates == 1) {
+    turns.value[0] = std::clamp(value, range.lower, range.upper);
+    turns.count = (value >= range.lower_tolerant) & (value <= range.upper_tolerant);
+    return;
+  }
+  turns.count = 0;
   for (int candidate = 0; candidate < 3; ++candidate, value += kTwoPi) {
     const bool inside = (candidate < range.candidates) & (value >= range.lower_tolerant) &
                         (value <= range.upper_tolerant);
@@ -126,8 +132,6 @@ void OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF, const IkOptions& 
   const double height = p_BC.z() - g_.c1;
   const double k = forearm_length_;
   const double theta4_reference = g_.sign[3] * options.axis4_reference + g_.zero_offset[3];
-  const double sin_theta4_reference = std::sin(theta4_reference);
-  const double cos_theta4_reference = std::cos(theta4_reference);
 
   // Every in-limit value of each joint per branch; the solutions are their
   // combinations, written in one pass once all branches are known.
@@ -193,8 +197,9 @@ void OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF, const IkOptions& 
       const double theta5 = arcTangent2(s5, c5);
       const bool singular = s5 < options.wrist_singular_sine;
       const double theta4 = singular ? theta4_reference : arcTangent2(W(1, 2), W(0, 2));
-      const double s4 = singular ? sin_theta4_reference : W(1, 2) / s5;
-      const double c4 = singular ? cos_theta4_reference : W(0, 2) / s5;
+      // The singular wrist is rare: its sine and cosine only then.
+      const double s4 = singular ? std::sin(theta4_reference) : W(1, 2) / s5;
+      const double c4 = singular ? std::cos(theta4_reference) : W(0, 2) / s5;
       // Axis 6 given axes 4 and 5, so that the pose is exact whatever the
       // accuracy of axis 4 near the singularity: Rz(θ6) = Ry(θ5)ᵀ Rz(θ4)ᵀ W.
       const double m00 = c5 * (c4 * W(0, 0) + s4 * W(1, 0)) - s5 * W(2, 0);
@@ -261,8 +266,9 @@ void OrthoParallelSolver::appendSolutions(
     const int branch_index = outcome.branch.index();
     const std::array<TurnValues, 6>& turns = branch_turns[branch_index];
     // Each solution starts from the first value of every joint; only the
-    // joints with several values (axes 4 and 6, typically) then vary. Copying
-    // a prepared solution is cheaper than constructing each in place.
+    // joints with several values (axis 6, sometimes axis 4) then vary.
+    // Copying a prepared solution measured faster than constructing each in
+    // place.
     IkSolution solution;
     solution.branch_index = branch_index;
     solution.q.resize(6);
@@ -279,7 +285,7 @@ void OrthoParallelSolver::appendSolutions(
     std::array<int, 6> pick{};
     for (int s = 0; s < count; ++s) {
       for (int v = 0; v < varying_count; ++v) {
-        solution.q[varying[v]] = turns[varying[v]].value[pick[v]];
+        solution.q[varying[v]] = turns[varying[v]].value[static_cast<std::size_t>(pick[v])];
       }
       out.solutions.push_back(solution);
       // Odometer over the varying joints, the last fastest.
