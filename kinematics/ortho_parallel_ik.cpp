@@ -114,10 +114,18 @@ IkSolutions OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF,
 void OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF, const IkOptions& options,
                                 IkSolutions& out) const {
   out.solutions.clear();
+  // Field by field: assigning a fresh BranchOutcome copies its joint vector
+  // through a library memcpy, eight times per pose.
   for (int index = 0; index < 8; ++index) {
     BranchOutcome& outcome = out.branches[index];
-    outcome = BranchOutcome{};
     outcome.branch = ArmBranch::fromIndex(index);
+    outcome.status = BranchStatus::kOutOfReach;
+    outcome.wrist_singular = false;
+    outcome.q.resize(0);
+    outcome.limit_joint = -1;
+    outcome.limit_value = 0.0;
+    outcome.first_solution = 0;
+    outcome.solution_count = 0;
   }
 
   // The last link's origin is the wrist centre C (axes 4, 5, 6 meet there).
@@ -230,7 +238,7 @@ void OrthoParallelSolver::solve(const Eigen::Isometry3d& X_BF, const IkOptions& 
         BranchOutcome& outcome = out.branches[branch.index()];
         outcome.wrist_singular = singular;
         std::array<TurnValues, 6>& turns = branch_turns[branch.index()];
-        std::copy(arm_turns.begin(), arm_turns.end(), turns.begin());
+        for (int j = 0; j < 3; ++j) turns[j] = arm_turns[j];
         int limit_joint = arm_limit_joint;
         for (int j = 3; j < 6; ++j) {
           q[j] = wrapToPi(g_.sign[j] * (wrist_theta[j - 3] - g_.zero_offset[j]));
