@@ -158,16 +158,17 @@ TEST_CASE("plan writes the sample paint programs, and they re-verify on their ow
       CHECK(std::filesystem::exists(directory + "/" + name + suffix));
     }
 
-    // The process is switched on once per raster pass (the spray is off on
-    // the turnarounds beyond the panel) and once for a seam.
+    // The process is switched on once per stretch of the tool path with the
+    // process on: once per raster pass (the spray is off on the turnarounds
+    // beyond the panel), once for a seam.
     std::map<std::string, int> expected_starts;
     for (const auto& [task, path] : toolPaths(job)) {
-      int passes = 0;
+      int stretches = 0;
       for (std::size_t i = 0; i < path.waypoints.size(); ++i) {
-        passes += path.waypoints[i].process_on &&
-                  (i == 0 || !path.waypoints[i - 1].process_on);
+        stretches += path.waypoints[i].process_on &&
+                     (i == 0 || !path.waypoints[i - 1].process_on);
       }
-      expected_starts[task] = passes;
+      expected_starts[task] = stretches;
     }
     std::map<std::string, int> starts;
     for (const planner::ProgramRecord& record : program.records) {
