@@ -5,6 +5,9 @@
 #include <catch2/catch.hpp>
 
 #include <filesystem>
+#include <map>
+#include <string>
+#include <variant>
 
 #include "collision/collision_world.hpp"
 #include "kinematics/forward_kinematics.hpp"
@@ -33,23 +36,40 @@ double angleBetween(const Eigen::Vector3d& a, const Eigen::Vector3d& b) {
   return std::atan2(a.cross(b).norm(), a.dot(b));
 }
 
-/// Every motion record of the sample program, checked against the job it
-/// came from.
+/// The collision world of one tool of a cell, with the workspace its
+/// queries use.
+struct ToolWorld {
+  ToolWorld(const planner::Cell& cell, const planner::Tool& tool)
+      : world(planner::buildCellCollisionWorld(cell, tool)), workspace(world) {}
+  collision::CollisionWorld world;
+  collision::CollisionWorkspace workspace;
+};
+
+/// The poses each seam or patch of `job` may take, by name: its approach,
+/// waypoints and retract, in its frame; the spin about the tool axis is free.
+std::map<std::string, planner::ToolPath> toolPaths(const planner::Job& job) {
+  std::map<std::string, planner::ToolPath> paths;
+  for (const planner::JobTask& task : job.tasks) {
+    if (const auto* seam = std::get_if<planner::SeamSpec>(&task)) {
+      paths.emplace(seam->name, planner::buildToolPath(*seam, *job.cell.findTool(seam->tool)));
+    } else {
+      const planner::PatchSpec& patch = std::get<planner::PatchSpec>(task);
+      paths.emplace(patch.name,
+                    planner::buildToolPath(patch, *job.cell.findTool(patch.tool), job.source));
+    }
+  }
+  return paths;
+}
+
+/// Every motion record of a planned program, checked against the job it
+/// came from, with the tool each record names.
 void verifyProgram(const planner::Program& program, const planner::Job& job) {
   const planner::Cell& cell = job.cell;
   const kinematics::ArmModel& arm = cell.arm;
-  const planner::Tool& tool = *cell.findTool("torch");
   const Eigen::Isometry3d X_WB = cell.frames.X_W(cell.arm_frame);
-  const collision::CollisionWorld world = planner::buildCellCollisionWorld(cell, tool);
-  collision::CollisionWorkspace workspace(world);
-
-  // The poses each seam may take: its approach, waypoints and retract, in
-  // the seam frame; the spin about the tool axis is free.
-  std::map<std::string, planner::ToolPath> paths;
-  for (const planner::JobTask& task : job.tasks) {
-    const planner::SeamSpec& seam = std::get<planner::SeamSpec>(task);
-    paths.emplace(seam.name, planner::buildToolPath(seam, *cell.findTool(seam.tool)));
-  }
+  std::map<std::string, ToolWorld> worlds;
+  for (const planner::Tool& tool : cell.tools) worlds.try_emplace(tool.name, cell, tool);
+  const std::map<std::string, planner::ToolPath> paths = toolPaths(job);
 
   int motions = 0;
   const kinematics::JointVector* previous = nullptr;
@@ -57,13 +77,15 @@ void verifyProgram(const planner::Program& program, const planner::Job& job) {
     const planner::MotionRecord* motion = std::get_if<planner::MotionRecord>(&record);
     if (motion == nullptr) continue;
     ++motions;
-    CAPTURE(motions, motion->q.transpose(), motion->seam, motion->frame);
+    CAPTURE(motions, motion->q.transpose(), motion->seam, motion->frame, motion->tool);
+    const planner::Tool* tool = cell.findTool(motion->tool);
+    REQUIRE(tool != nullptr);
     // File values are printed to 4 decimals of a degree: the limits hold
     // to that rounding.
     CHECK(((motion->q - arm.lowerLimits()).array() >= -1e-5).all());
     CHECK(((arm.upperLimits() - motion->q).array() >= -1e-5).all());
 
-    const Eigen::Isometry3d X_WT = X_WB * kinematics::flangePose(arm, motion->q) * tool.X_FT;
+    const Eigen::Isometry3d X_WT = X_WB * kinematics::flangePose(arm, motion->q) * tool->X_FT;
     const Eigen::Isometry3d X_WR =
         motion->frame == "world" ? Eigen::Isometry3d::Identity() : cell.frames.X_W(motion->frame);
     const Eigen::Isometry3d X_WT_file = X_WR * motion->X_RT;
@@ -73,6 +95,7 @@ void verifyProgram(const planner::Program& program, const planner::Job& job) {
 
     if (!motion->seam.empty()) {
       const planner::ToolPath& path = paths.at(motion->seam);
+      CHECK(motion->frame == path.frame);
       std::vector<Eigen::Isometry3d> poses{path.approach, path.retract};
       for (const planner::Waypoint& waypoint : path.waypoints) poses.push_back(waypoint.X_XT);
       bool on_seam = false;
@@ -84,7 +107,8 @@ void verifyProgram(const planner::Program& program, const planner::Job& job) {
       CHECK(on_seam);
     }
     // The solver and the transit planner keep the margin at every target.
-    CHECK(world.checkState(motion->q, workspace).valid());
+    ToolWorld& tool_world = worlds.at(motion->tool);
+    CHECK(tool_world.world.checkState(motion->q, tool_world.workspace).valid());
     // Average joint speed over each move within the joint's limit (the
     // limit is on the peak; the average can only be lower).
     if (previous != nullptr && motion->duration > 0.0) {
@@ -112,6 +136,46 @@ TEST_CASE("plan writes a sample program that re-verifies on its own", "[cli][pla
   for (const char* file : {"bracket_welds_joints.csv", "bracket_welds_summary.json",
                            "bracket_welds_report.html"}) {
     CHECK(std::filesystem::exists(directory + "/" + file));
+  }
+}
+
+TEST_CASE("plan writes the sample paint programs, and they re-verify on their own",
+          "[cli][plan][e2e]") {
+  // Two jobs on one cell: a program works with one tool, and the seal uses
+  // the bead nozzle, the coat the spray gun.
+  for (const std::string name : {"panel_seal", "panel_coat"}) {
+    CAPTURE(name);
+    const std::string directory = outputDirectory("plan_" + name);
+    const std::string job_file = "samples/jobs/" + name + ".xml";
+    const test::ToolRun run = test::runTool("plan " + job_file + " --output '" + directory + "'");
+    CAPTURE(run.output);
+    REQUIRE(run.exit_code == 0);
+    CHECK_THAT(run.output, Catch::Contains("cycle time") && Catch::Contains("CAUTION"));
+    const planner::Job job = planner::loadJob(std::string(TW_SOURCE_DIR) + "/" + job_file);
+    const planner::Program program = postproc::readMotionTextFile(directory + "/" + name + ".twm");
+    verifyProgram(program, job);
+    for (const std::string suffix : {"_joints.csv", "_summary.json"}) {
+      CHECK(std::filesystem::exists(directory + "/" + name + suffix));
+    }
+
+    // The process is switched on once per stretch of the tool path with the
+    // process on: once per raster pass (the spray is off on the turnarounds
+    // beyond the panel), once for a seam.
+    std::map<std::string, int> expected_starts;
+    for (const auto& [task, path] : toolPaths(job)) {
+      int stretches = 0;
+      for (std::size_t i = 0; i < path.waypoints.size(); ++i) {
+        stretches += path.waypoints[i].process_on &&
+                     (i == 0 || !path.waypoints[i - 1].process_on);
+      }
+      expected_starts[task] = stretches;
+    }
+    std::map<std::string, int> starts;
+    for (const planner::ProgramRecord& record : program.records) {
+      const auto* event = std::get_if<planner::ProcessEvent>(&record);
+      if (event != nullptr && event->kind == planner::ProcessEventKind::kStart) ++starts[event->seam];
+    }
+    CHECK(starts == expected_starts);
   }
 }
 

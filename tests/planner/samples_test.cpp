@@ -19,7 +19,8 @@ ToolPath pathOf(const JobTask& task, const Job& job) {
 }
 
 TEST_CASE("The sample jobs and cells load and give tool paths", "[planner][samples]") {
-  for (const char* name : {"samples/jobs/bracket_welds.xml", "samples/jobs/panel_coat.xml"}) {
+  for (const char* name : {"samples/jobs/bracket_welds.xml", "samples/jobs/panel_seal.xml",
+                           "samples/jobs/panel_coat.xml"}) {
     CAPTURE(name);
     const Job job = loadJob(test::sourcePath(name));
     REQUIRE_FALSE(job.tasks.empty());
@@ -85,24 +86,50 @@ TEST_CASE("The sample bracket seams hold the torch at the job's angles", "[plann
 
 TEST_CASE("The sample panel coat follows the reference spray vector", "[planner][samples]") {
   const Job job = loadJob(test::sourcePath("samples/jobs/panel_coat.xml"));
-  REQUIRE(job.tasks.size() == 2);
-  const PatchSpec& patch = std::get<PatchSpec>(job.tasks[1]);
+  REQUIRE(job.tasks.size() == 1);
+  const PatchSpec& patch = std::get<PatchSpec>(job.tasks[0]);
   // domain-facts.md §2 [C]: 200 mm, 30° → 230.9 mm fan; lead = half of it
   // plus 0.5²/(2·5) m = 25 mm [C + M]; values to 0.1 mm, checked to 0.05 mm.
   CHECK(patch.raster.spray_width == Approx(0.2309).margin(5e-5));
   CHECK(patch.raster.lead == Approx(0.11547 + 0.025).margin(5e-5));
-  const ToolPath path = pathOf(job.tasks[1], job);
+  const ToolPath path = pathOf(job.tasks[0], job);
   // 400 mm across at 115.5 mm: 5 passes (the rule in paint_raster.hpp).
   CHECK(path.waypoints.back().pass == 4);
   // The gun is fixed about its axis: a flat fan is not symmetric.
   CHECK(path.spin.fixed());
   const Eigen::Isometry3d X_WT = worldPoses(path, job.cell.frames)[1];
-  // First pass starts left of the panel by the lead, 200 mm above it, gun down:
-  // panel corner at stand (800, 0, 0) + (−300, −200, 500) mm.
-  const double first_offset = 0.2 - 2.0 * patch.raster.spray_width * 0.5;
-  const Eigen::Vector3d expected(0.5 - patch.raster.lead, -0.2 + first_offset, 0.7);
+  // Hand composition of the cell's frames (common practice, no source): the
+  // panel corner is at rack (1400, 0, 0) + (0, 300, 950) mm, and rpy
+  // (90, 0, −90) turns the panel's x to the world's −y, its y to +z and its
+  // z (out of the face) to −x. The first pass runs along −x of the panel
+  // and steps across along z × (−x) = −y, so it lies above the panel: the
+  // five pass lines are centred on its 400 mm height, two spacings (one fan
+  // width) above the middle, at y = 200 mm + w. It starts the lead beyond
+  // the right edge (x = 600 mm + lead), and the TCP stands off 200 mm along
+  // the panel's z.
+  const double w = patch.raster.spray_width;
+  const Eigen::Vector3d expected(1.4 - 0.2, 0.3 - (0.6 + patch.raster.lead), 0.95 + 0.2 + w);
   CHECK((X_WT.translation() - expected).norm() < 1e-9);
-  CHECK((X_WT.linear().col(2) + Eigen::Vector3d::UnitZ()).norm() < 1e-12);
+  // Gun horizontal, pointing at the face (world +x); the first pass runs
+  // from right to left as seen from the arm (world +y).
+  CHECK((X_WT.linear().col(2) - Eigen::Vector3d::UnitX()).norm() < 1e-12);
+  CHECK((X_WT.linear().col(0) - Eigen::Vector3d::UnitY()).norm() < 1e-12);
+}
+
+TEST_CASE("The sample panel seal runs along the lower edge with the nozzle at the face",
+          "[planner][samples]") {
+  const Job job = loadJob(test::sourcePath("samples/jobs/panel_seal.xml"));
+  REQUIRE(job.tasks.size() == 1);
+  const ToolPath path = pathOf(job.tasks[0], job);
+  // 560 mm at most 5 mm apart: 112 pieces, 113 waypoints.
+  CHECK(path.waypoints.size() == 113);
+  const Eigen::Isometry3d X_WT = worldPoses(path, job.cell.frames)[1];
+  // The first point (20, 20, 0) mm in the panel frame, composed by hand as in
+  // the coat test (common practice, no source): world (1400, 300 − 20,
+  // 950 + 20) mm, with the TCP 3 mm off the face towards the arm (−x).
+  const Eigen::Vector3d expected(1.4 - 0.003, 0.3 - 0.02, 0.95 + 0.02);
+  CHECK((X_WT.translation() - expected).norm() < 1e-9);
+  CHECK((X_WT.linear().col(2) - Eigen::Vector3d::UnitX()).norm() < 1e-12);
 }
 
 }  // namespace
