@@ -97,22 +97,37 @@ const Tool& toolOf(const Job& job, const std::string& name) {
 
 }  // namespace
 
+void requireOneTool(const Job& job) {
+  const auto tool_of = [](const JobTask& task) {
+    return std::visit([](const auto& spec) { return spec.tool; }, task);
+  };
+  const auto line_of = [](const JobTask& task) {
+    return std::visit([](const auto& spec) { return spec.line; }, task);
+  };
+  const auto name_of = [](const JobTask& task) {
+    return std::visit([](const auto& spec) { return spec.name; }, task);
+  };
+  for (const JobTask& task : job.tasks) {
+    if (tool_of(task) != tool_of(job.tasks.front())) {
+      throw InputError(job.source, line_of(task),
+                       "'" + name_of(task) + "' uses tool '" + tool_of(task) + "' after '" +
+                           tool_of(job.tasks.front()) +
+                           "': a program runs with one tool (tool changes within one program are "
+                           "not supported; put the tasks of each tool in a job of their own)");
+    }
+  }
+}
+
 PlanResult planJob(const Job& job, const PlanOptions& options) {
+  if (job.tasks.empty()) throw InputError(job.source, 0, "the job has no seams or patches");
+  requireOneTool(job);
   PlanResult result;
-  result.seams = solveJob(job, options.solver, options.collision);
+  result.seams = solveJob(job, options.solver, options.collision, options.on_step);
   if (!result.seams.feasible()) return result;
 
   std::vector<const SolvedSeam*> seams;
   for (const SeamOutcome& outcome : result.seams.tasks) seams.push_back(&std::get<SolvedSeam>(outcome));
-  if (seams.empty()) throw InputError(job.source, 0, "the job has no seams or patches");
   const std::string& tool_name = seams.front()->tool;
-  for (const SolvedSeam* seam : seams) {
-    if (seam->tool != tool_name) {
-      throw InputError(job.source, 0,
-                       "seam '" + seam->name + "' uses tool '" + seam->tool + "' after '" +
-                           tool_name + "': tool changes within one program are not supported");
-    }
-  }
   const Tool& tool = toolOf(job, tool_name);
   const kinematics::ArmModel& arm = job.cell.arm;
 
@@ -165,6 +180,7 @@ PlanResult planJob(const Job& job, const PlanOptions& options) {
       result.transit_failures.push_back({position_name, goal_name, transit});
       return false;
     }
+    if (options.on_step) options.on_step("transit " + position_name + " to " + goal_name);
     const JointTrajectory trajectory(arm, transit.path, transit_limits);
     for (const JointTrajectory::Segment& segment : trajectory.segments()) {
       joint_move(segment.q_end, segment.profile.duration());

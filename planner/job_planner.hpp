@@ -9,6 +9,7 @@
 #include "planner/job_solver.hpp"
 #include "planner/process_move_timing.hpp"
 #include "planner/program/program.hpp"
+#include "planner/step_callback.hpp"
 #include "planner/transit_planner.hpp"
 
 namespace tw::planner {
@@ -33,6 +34,9 @@ struct PlanOptions {
   bool measure_clearance = true;
   /// Generator name and version written into every program.
   std::string generator = "tracewright 0.1.0";
+  /// Hears of each seam solved and each transit planned (see StepCallback);
+  /// a job has tasks + 1 transits.
+  StepCallback on_step;
 };
 
 /// A transit that could not be planned, with the planner's own words.
@@ -61,6 +65,12 @@ struct PlanResult {
 
   bool feasible() const { return program.has_value(); }
 };
+
+/// Throws tw::InputError, at the line of the first task that differs, when
+/// the tasks of `job` do not all use one tool: a program runs with one tool
+/// (tool changes within a program are not supported yet). planJob calls it
+/// before any work; `check` calls it too, so that both refuse such a job.
+void requireOneTool(const Job& job);
 
 /// The full pipeline for a loaded job: solve every seam (solveJob), plan
 /// the transits home → seam 1 → … → seam n → home in the job's order with

@@ -27,7 +27,7 @@ std::vector<const SeamReport*> JobSolution::reports() const {
 }
 
 JobSolution solveJob(const Job& job, const SeamSolverOptions& options,
-                     const CellCollisionOptions& collision) {
+                     const CellCollisionOptions& collision, const StepCallback& on_step) {
   const Cell& cell = job.cell;
   std::vector<ToolPath> paths;
   for (const JobTask& task : job.tasks) {
@@ -51,6 +51,7 @@ JobSolution solveJob(const Job& job, const SeamSolverOptions& options,
   std::atomic<std::size_t> next{0};
   std::exception_ptr failure;
   std::mutex failure_mutex;
+  std::mutex step_mutex;
   const auto work = [&]() {
     try {
       std::map<std::string, std::unique_ptr<collision::CollisionWorkspace>> workspaces;
@@ -66,6 +67,10 @@ JobSolution solveJob(const Job& job, const SeamSolverOptions& options,
         setting.X_FT = cell.findTool(path.tool)->X_FT;
         setting.reference = cell.home;
         solution.tasks[i] = solveSeam(path, setting, options, *workspace);
+        if (on_step) {
+          const std::lock_guard<std::mutex> lock(step_mutex);
+          on_step("seam " + path.name);
+        }
       }
     } catch (...) {
       const std::lock_guard<std::mutex> lock(failure_mutex);

@@ -6,6 +6,7 @@
 #include "planner/cell_collision_world.hpp"
 #include "planner/job.hpp"
 #include "planner/seam_solver.hpp"
+#include "planner/step_callback.hpp"
 
 namespace tw::planner {
 
@@ -26,8 +27,9 @@ struct JobSolution {
 /// loaded, so a frame moved in job.cell.frames moves seams and bodies), and
 /// solves the tasks with options.threads worker threads, each with its own
 /// collision workspace. The result does not depend on the thread count.
+/// `on_step`, when set, hears of each task as it is solved.
 /// Throws tw::InputError for bad input (tool path geometry, meshes).
 JobSolution solveJob(const Job& job, const SeamSolverOptions& options = {},
-                     const CellCollisionOptions& collision = {});
+                     const CellCollisionOptions& collision = {}, const StepCallback& on_step = {});
 
 }  // namespace tw::planner

@@ -1,10 +1,9 @@
 #include "planner/cli/plan_commands.hpp"
 
-#include <unistd.h>
-
 #include <cmath>
 #include <cstdio>
 #include <filesystem>
+#include <functional>
 #include <iostream>
 #include <memory>
 #include <nlohmann/json.hpp>
@@ -12,6 +11,7 @@
 
 #include "kinematics/input_error.hpp"
 #include "planner/cli/exit_codes.hpp"
+#include "planner/cli/progress_bar.hpp"
 #include "planner/cli/report_geometry.hpp"
 #include "planner/job_loader.hpp"
 #include "planner/job_planner.hpp"
@@ -33,15 +33,6 @@ struct PlanArguments {
   bool json = false;
   std::string planner = "RRTConnect";
 };
-
-/// Stage messages on stderr, only when a person is watching it.
-void progress(const char* stage) {
-  if (isatty(STDERR_FILENO)) std::fprintf(stderr, "\r\033[K%s", stage);
-}
-
-void endProgress() {
-  if (isatty(STDERR_FILENO)) std::fprintf(stderr, "\r\033[K");
-}
 
 std::string millimetres(double metres) { return planner::formatDecimal(metres * 1000.0, 1); }
 
@@ -120,13 +111,10 @@ nlohmann::json resultJson(const PlanResult& result, const std::vector<std::strin
   return json;
 }
 
-/// Writes every output of the job, each file atomically.
-std::vector<std::string> writeOutputs(const planner::Job& job, const planner::Program& program,
-                                      const std::string& directory_override) {
-  postproc::PostProcessorRegistry registry;
-  postproc::registerBuiltInPostProcessors(registry);
-  // Check every writer name before writing anything, so that a bad job
-  // leaves no partial set of outputs behind.
+/// Throws tw::InputError at the first output whose writer cannot be used.
+/// Called before any planning, so that a bad job costs no time and leaves
+/// no partial set of outputs behind.
+void requireUsableWriters(const planner::Job& job, const postproc::PostProcessorRegistry& registry) {
   for (const planner::OutputRequest& request : job.outputs) {
     if (!registry.contains(request.writer)) {
       throw InputError(job.source, request.line,
@@ -137,6 +125,14 @@ std::vector<std::string> writeOutputs(const planner::Job& job, const planner::Pr
                        "<output writer=\"template\">: job files cannot name a template file yet");
     }
   }
+}
+
+/// Writes every output of the job, each file atomically, telling
+/// `on_written` of each file.
+std::vector<std::string> writeOutputs(const planner::Job& job, const planner::Program& program,
+                                      const postproc::PostProcessorRegistry& registry,
+                                      const std::string& directory_override,
+                                      const std::function<void(const std::string&)>& on_written) {
   postproc::WriteOptions options;
   options.report_cell = reportCellOf(job.cell, program);
   std::vector<std::string> written;
@@ -151,25 +147,34 @@ std::vector<std::string> writeOutputs(const planner::Job& job, const planner::Pr
     options.output_name = path.string();
     postproc::writeProgramFile(registry.get(request.writer), program, options, path);
     written.push_back(path.string());
+    on_written(path.filename().string());
   }
   return written;
 }
 
 int runPlan(const PlanArguments& arguments) {
-  progress("loading the job");
   const planner::Job job = planner::loadJob(arguments.job_path);
+  postproc::PostProcessorRegistry registry;
+  postproc::registerBuiltInPostProcessors(registry);
+  requireUsableWriters(job, registry);
+  planner::requireOneTool(job);
+  // Steps: every seam, every transit (one more than the seams), every output.
+  const int seams = static_cast<int>(job.tasks.size());
+  ProgressBar bar(stderr, stderrIsTerminal(), seams + (seams + 1) + static_cast<int>(job.outputs.size()));
   planner::PlanOptions options;
   options.solver.threads = arguments.threads;
   options.transit_planner = arguments.planner;
   if (arguments.seed > 0) options.seed = arguments.seed;
-  progress("solving seams and planning transits");
+  options.on_step = [&bar](const std::string& finished) { bar.step(finished); };
+  bar.stage("solving seams");
   const PlanResult result = planner::planJob(job, options);
   std::vector<std::string> written;
   if (result.feasible()) {
-    progress("writing outputs");
-    written = writeOutputs(job, *result.program, arguments.output_directory);
+    bar.stage("writing outputs");
+    written = writeOutputs(job, *result.program, registry, arguments.output_directory,
+                           [&bar](const std::string& file) { bar.step("wrote " + file); });
   }
-  endProgress();
+  bar.finish();
   if (arguments.json) {
     std::cout << resultJson(result, written).dump(2) << "\n";
   } else if (result.feasible()) {
@@ -182,9 +187,15 @@ int runPlan(const PlanArguments& arguments) {
 
 int runCheck(const PlanArguments& arguments) {
   const planner::Job job = planner::loadJob(arguments.job_path);
+  // What plan would refuse, check refuses too.
+  planner::requireOneTool(job);
+  ProgressBar bar(stderr, stderrIsTerminal(), static_cast<int>(job.tasks.size()));
   planner::SeamSolverOptions options;
   options.threads = arguments.threads;
-  const planner::JobSolution solution = planner::solveJob(job, options);
+  bar.stage("solving seams");
+  const planner::JobSolution solution = planner::solveJob(
+      job, options, {}, [&bar](const std::string& finished) { bar.step(finished); });
+  bar.finish();
   if (arguments.json) {
     nlohmann::json json;
     json["feasible"] = solution.feasible();
