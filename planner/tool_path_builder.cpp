@@ -58,12 +58,17 @@ ToolPath buildToolPath(const PatchSpec& patch, const Tool& tool, const std::stri
   path.source = source;
   const Eigen::Vector3d& n = patch.patch.normal;
   const std::vector<RasterPass> passes = paintRaster(patch.patch, patch.raster);
+  // Every pass keeps the gun's x axis along the first pass: a flat fan is
+  // symmetric end to end, so the return passes need no half turn of the
+  // gun (which cost seconds at every turnaround), and the fan stays across
+  // every pass because the passes are parallel.
+  const Eigen::Vector3d x_axis = passes.empty() ? Eigen::Vector3d::Zero() : passes.front().direction;
   for (std::size_t k = 0; k < passes.size(); ++k) {
     const RasterPass& pass = passes[k];
     const auto add = [&](const Eigen::Vector3d& aim, bool spray_on) {
       Waypoint waypoint;
       // The pass direction lies in the plane, so the frame always exists.
-      waypoint.X_XT = *toolFrameAlong(aim + patch.raster.stand_off * n, -n, pass.direction);
+      waypoint.X_XT = *toolFrameAlong(aim + patch.raster.stand_off * n, -n, x_axis);
       waypoint.speed = patch.speed;
       waypoint.process_on = spray_on;
       waypoint.pass = static_cast<int>(k);
