@@ -128,6 +128,10 @@ TEST_CASE("A patch tool path sprays only across the part", "[planner][path][pain
     CAPTURE(waypoint.pass, p.transpose());
     CHECK(p.z() == Approx(0.2).margin(kBar));
     CHECK((waypoint.X_XT.linear().col(2) + Eigen::Vector3d::UnitZ()).norm() < kBar);
+    // The gun keeps its x axis along the first pass (+x) on the return
+    // passes too: the fan (along the gun's y) stays across every pass, and
+    // the gun never turns half round at a turnaround.
+    CHECK((waypoint.X_XT.linear().col(0) - Eigen::Vector3d::UnitX()).norm() < kBar);
     CHECK(waypoint.line == 12);
     // Spraying moves start inside the outline (x in [0, 0.6)), never in the lead.
     if (waypoint.process_on) CHECK((p.x() >= -kBar && p.x() <= 0.6 + kBar));
