@@ -6,8 +6,9 @@
 #include "planner/report_text.hpp"
 
 namespace tw::planner {
-
 namespace {
+
+constexpr double kRadToDeg = 180.0 / 3.14159265358979323846;
 
 void checkInput(const kinematics::ArmModel& arm, const std::vector<ProcessWaypoint>& waypoints,
                 const ProcessSpeed& speed) {
@@ -55,8 +56,8 @@ ProcessMoveTiming timeProcessMove(const kinematics::ArmModel& arm,
                          SpeedLimitCause::kOrientationSpeed, -1, ""};
     if (turn / speed.orientation_speed > time) {
       time = turn / speed.orientation_speed;
-      lowered.reason = "the tool turns " + formatDecimal(turn, 6) + " rad, at most " +
-                       formatDecimal(speed.orientation_speed, 6) + " rad/s";
+      lowered.reason = "the tool turns " + formatDecimal(turn * kRadToDeg, 1) + " deg, at most " +
+                       formatDecimal(speed.orientation_speed * kRadToDeg, 1) + " deg/s";
     }
     for (int j = 0; j < arm.jointCount(); ++j) {
       const double limit = speed.joint_velocity_fraction * arm.joint(j).max_velocity;
@@ -65,11 +66,13 @@ ProcessMoveTiming timeProcessMove(const kinematics::ArmModel& arm,
         time = joint_time;
         lowered.cause = SpeedLimitCause::kJointVelocity;
         lowered.joint = j;
-        const char* unit =
-            arm.joint(j).type == kinematics::JointType::kRevolute ? " rad/s" : " m/s";
+        // The words are for the programmer: degrees and millimetres.
+        const bool revolute = arm.joint(j).type == kinematics::JointType::kRevolute;
+        const double to_user = revolute ? kRadToDeg : 1000.0;
         lowered.reason = "joint " + arm.joint(j).name + " moves " +
-                         formatDecimal(std::abs(to.q[j] - from.q[j]), 6) +
-                         " at most " + formatDecimal(limit, 6) + unit;
+                         formatDecimal(std::abs(to.q[j] - from.q[j]) * to_user, 2) +
+                         (revolute ? " deg" : " mm") + ", at most " +
+                         formatDecimal(limit * to_user, 1) + (revolute ? " deg/s" : " mm/s");
       }
     }
     const double held = time > 0.0 ? distance / time : speed.tcp_speed;
@@ -79,8 +82,8 @@ ProcessMoveTiming timeProcessMove(const kinematics::ArmModel& arm,
     if (time > programmed_time) {
       lowered.speed = held;
       lowered.reason = "segment " + std::to_string(i) + ": TCP speed lowered from " +
-                       formatDecimal(speed.tcp_speed, 6) + " to " + formatDecimal(held, 6) +
-                       " m/s; " + lowered.reason;
+                       formatDecimal(speed.tcp_speed * 1000.0, 1) + " to " +
+                       formatDecimal(held * 1000.0, 1) + " mm/s; " + lowered.reason;
       timing.lowered.push_back(lowered);
     }
   }

@@ -82,7 +82,7 @@ TEST_CASE("Where a wrist joint cannot keep up the speed is lowered and reported"
     CHECK(lowered.cause == SpeedLimitCause::kJointVelocity);
     CHECK((lowered.joint == 3 || lowered.joint == 5));
     CHECK(lowered.programmed_speed == 0.2);
-    CHECK_THAT(lowered.reason, Catch::Contains("lowered from 0.200000"));
+    CHECK_THAT(lowered.reason, Catch::Contains("lowered from 200.0 to") && Catch::Contains(" deg/s"));
   }
   checkPromises(waypoints, speed, timing);
 }
