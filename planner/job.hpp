@@ -70,6 +70,9 @@ struct TransitSettings {
 struct OutputRequest {
   std::string writer;
   std::string path;  ///< resolved against the output directory
+  /// The `template` writer's template file, resolved against the job file;
+  /// empty for every other writer.
+  std::string template_path;
   int line = 0;
 };
 

@@ -258,9 +258,20 @@ class JobFileReader {
     std::set<std::string> files;
     for (const XMLElement* output = element.FirstChildElement("output"); output != nullptr;
          output = output->NextSiblingElement("output")) {
-      file_.allowOnly(*output, {"writer", "file"});
-      OutputRequest request{file_.text(*output, "writer"), file_.text(*output, "file"),
-                            output->GetLineNum()};
+      file_.allowOnly(*output, {"writer", "file", "template"});
+      OutputRequest request;
+      request.writer = file_.text(*output, "writer");
+      request.path = file_.text(*output, "file");
+      request.line = output->GetLineNum();
+      // Only the template writer renders a user's template; it needs one.
+      const std::optional<std::string> template_file = file_.optionalText(*output, "template");
+      if (request.writer == "template" && !template_file) {
+        file_.fail(*output, "writer=\"template\" needs template=\"FILE\" (the template to render)");
+      }
+      if (request.writer != "template" && template_file) {
+        file_.fail(*output, "template=\"...\" is only for writer=\"template\"");
+      }
+      if (template_file) request.template_path = resolvePath(file_, *template_file);
       if (!files.insert(request.path).second) {
         file_.fail(*output, "file '" + request.path + "' is already written by another <output>");
       }

@@ -18,6 +18,7 @@
 #include "planner/report_text.hpp"
 #include "postproc/atomic_file.hpp"
 #include "postproc/post_processor_registry.hpp"
+#include "postproc/program_template.hpp"
 #include "postproc/safety_caution.hpp"
 
 namespace tw::cli {
@@ -120,10 +121,9 @@ void requireUsableWriters(const planner::Job& job, const postproc::PostProcessor
       throw InputError(job.source, request.line,
                        "<output writer=\"" + request.writer + "\">: unknown post-processor");
     }
-    if (request.writer == "template") {
-      throw InputError(job.source, request.line,
-                       "<output writer=\"template\">: job files cannot name a template file yet");
-    }
+    // A template with an error would otherwise surface only after planning,
+    // possibly after other outputs were written; its own errors name its line.
+    if (!request.template_path.empty()) postproc::ProgramTemplate::load(request.template_path);
   }
 }
 
@@ -145,6 +145,7 @@ std::vector<std::string> writeOutputs(const planner::Job& job, const planner::Pr
             : std::filesystem::path(directory_override) / std::filesystem::path(request.path).filename();
     std::filesystem::create_directories(path.parent_path());
     options.output_name = path.string();
+    options.template_file = request.template_path;
     postproc::writeProgramFile(registry.get(request.writer), program, options, path);
     written.push_back(path.string());
     on_written(path.filename().string());
