@@ -23,14 +23,16 @@ struct Demo {
   SeamSetting setting;
 
   Demo() {
-    // 499 mm along the table's y axis, 1 mm apart, 100 mm above the top, torch down.
+    // 499 mm along the table's y axis, 1 mm apart, 100 mm in from its edge on
+    // the arm's side (clear of the bracket and its clamps) and 100 mm above
+    // the top, torch down.
     path.name = "bench-seam";
     path.frame = "table-top";
     path.tool = "torch";
     path.spin = {-kPi, kPi};
     for (int i = 0; i < 500; ++i) {
       Waypoint waypoint;
-      waypoint.X_XT = Eigen::Translation3d(0.050, -0.250 + 0.001 * i, 0.100) *
+      waypoint.X_XT = Eigen::Translation3d(-0.300, -0.250 + 0.001 * i, 0.100) *
                       Eigen::AngleAxisd(kPi, Eigen::Vector3d::UnitX());
       waypoint.speed = 0.010;
       path.waypoints.push_back(waypoint);

@@ -56,8 +56,8 @@ TEST_CASE("refit reports the moved sample fixture and writes only its frame", "[
         runTool("refit '" + cell + "' --frame bracket --points " + kSamplePoints);
     CAPTURE(run.output);
     CHECK(run.exit_code == 0);
-    CHECK_THAT(run.output, Catch::Contains("pose in parent 'table-top' before: xyz -225.000 "
-                                           "-60.000 0.000 mm"));
+    CHECK_THAT(run.output, Catch::Contains("pose in parent 'table-top' before: xyz 100.000 "
+                                           "-50.000 0.000 mm"));
     // The documented move: 25 mm and 3 deg, within the invented 0.04 mm errors.
     CHECK_THAT(run.output, Catch::Contains("the frame origin moved 25.0") ||
                                Catch::Contains("the frame origin moved 24.9"));
@@ -81,18 +81,19 @@ TEST_CASE("refit reports the moved sample fixture and writes only its frame", "[
     CHECK(after.substr(after.find('\n', tag)) == before.substr(tag_end));
     const planner::Cell moved = planner::loadCell(cell);
     const Eigen::Isometry3d X_PF = moved.frames.X_PF("bracket");
-    // Bounds of the invented 0.04 mm measuring errors, as in rigid_fit_tests.
-    CHECK((X_PF.translation() - Eigen::Vector3d(-0.200, -0.060, 0.0)).norm() < 5e-5);
+    // The points file's comment: xyz 100 -25 0 mm, rpy 0 0 93 deg; bounds of
+    // the invented 0.04 mm measuring errors, as in rigid_fit_tests.
+    CHECK((X_PF.translation() - Eigen::Vector3d(0.100, -0.025, 0.0)).norm() < 5e-5);
     CHECK(Eigen::AngleAxisd(
               X_PF.linear() *
-              Eigen::AngleAxisd(-3.0 * kDeg, Eigen::Vector3d::UnitZ()).toRotationMatrix())
+              Eigen::AngleAxisd(-93.0 * kDeg, Eigen::Vector3d::UnitZ()).toRotationMatrix())
               .angle() < 0.03 * kDeg);
   }
 }
 
 TEST_CASE("refit measured in the world frame gives the same fixture pose", "[cli][refit]") {
-  // The table top sits at world (950, 0, 400): the same points in world
-  // coordinates must give the same pose of the bracket in the table top.
+  // The table top sits at world (1300, 0, 800), not turned: the same points
+  // in world coordinates must give the same pose of the bracket in the table top.
   std::istringstream in(test::readText(std::string(TW_SOURCE_DIR) + "/" + kSamplePoints));
   std::string out;
   for (std::string line; std::getline(in, line);) {
@@ -101,8 +102,8 @@ TEST_CASE("refit measured in the world frame gives the same fixture pose", "[cli
       std::istringstream row(line);
       for (std::string field; std::getline(row, field, ',');) f.push_back(field);
       line = f[0] + "," + f[1] + "," + f[2] + "," + f[3] + "," +
-             std::to_string(std::stod(f[4]) + 950) + "," + f[5] + "," +
-             std::to_string(std::stod(f[6]) + 400);
+             std::to_string(std::stod(f[4]) + 1300) + "," + f[5] + "," +
+             std::to_string(std::stod(f[6]) + 800);
     }
     out += line + "\n";
   }
@@ -148,7 +149,9 @@ TEST_CASE("refit with 3 points works and warns that the fit is barely checked", 
   const std::string points = test::writeTestFile(
       "refit_three.csv",
       "point,nominal_x_mm,nominal_y_mm,nominal_z_mm,measured_x_mm,measured_y_mm,measured_z_mm\n"
-      "A,0,0,0,-225,-60,0\nB,300,0,0,75,-60,0\nC,0,120,8,-225,60,8\n");
+      // Where the cell's pose (xyz 100 -50 0 mm, turned 90 deg about z)
+      // puts them: (x, y, z) goes to (100 - y, -50 + x, z).
+      "A,0,0,0,100,-50,0\nB,300,0,0,100,250,0\nC,0,120,8,-20,-50,8\n");
   const test::ToolRun run = runTool("refit '" + cellCopy("refit_three.xml") +
                                     "' --frame bracket --points '" + points + "'");
   CAPTURE(run.output);
@@ -232,9 +235,9 @@ TEST_CASE("The moved sample job loads with the bracket where refit put it", "[sa
   REQUIRE(moved.tasks.size() == original.tasks.size());
   const Eigen::Isometry3d X_PF = moved.cell.frames.X_PF("bracket");
   // As in the refit tests: within the invented 0.04 mm measuring errors.
-  CHECK((X_PF.translation() - Eigen::Vector3d(-0.200, -0.060, 0.0)).norm() < 5e-5);
+  CHECK((X_PF.translation() - Eigen::Vector3d(0.100, -0.025, 0.0)).norm() < 5e-5);
   CHECK(original.cell.frames.X_PF("bracket").translation().isApprox(
-      Eigen::Vector3d(-0.225, -0.060, 0.0), 1e-12));
+      Eigen::Vector3d(0.100, -0.050, 0.0), 1e-12));
 }
 
 }  // namespace tw::cli

@@ -174,12 +174,12 @@ TEST_CASE("The sample fixture-move points give back the documented move", "[rigi
     p_M.col(i) = list.points[i].p_M;
   }
   const RigidFit fit = fitRigidTransform(p_N, p_M, list.source);
-  // The file's comment: xyz -200 -60 0 mm, rpy 0 0 3 deg, measuring errors
+  // The file's comment: xyz 100 -25 0 mm, rpy 0 0 93 deg, measuring errors
   // of at most 0.04 mm per point (invented). Bounds: errors of 0.04 mm can
   // shift the origin by about that much and tilt the frame by about
   // 0.04 mm over the 108 mm height of the part, 0.02 deg.
-  CHECK((fit.X_MN.translation() - Eigen::Vector3d(-0.200, -0.060, 0.0)).norm() < 5e-5);
-  const Eigen::Matrix3d R_expected(Eigen::AngleAxisd(3.0 * kDeg, Eigen::Vector3d::UnitZ()));
+  CHECK((fit.X_MN.translation() - Eigen::Vector3d(0.100, -0.025, 0.0)).norm() < 5e-5);
+  const Eigen::Matrix3d R_expected(Eigen::AngleAxisd(93.0 * kDeg, Eigen::Vector3d::UnitZ()));
   CHECK(Eigen::AngleAxisd(fit.X_MN.linear() * R_expected.transpose()).angle() < 0.03 * kDeg);
   // Each error is at most 0.04 mm; the fit spreads them, 0.1 mm leaves room.
   for (const double residual : fit.residuals) CHECK(residual < 1e-4);

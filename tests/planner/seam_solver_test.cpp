@@ -169,12 +169,13 @@ TEST_CASE("The sample bracket job solves every seam, verified, the same on 1 and
 
 TEST_CASE("A seam blocked by a clamp at one spin is solved with another spin",
           "[planner][seam-solver]") {
-  // A 20 mm seam 60 mm above the table top, torch straight down.
-  const Eigen::Vector3d p_start(-0.110, 0.300, 0.060);
-  const Eigen::Vector3d p_end(-0.090, 0.300, 0.060);
+  // A 20 mm seam in the world frame, torch straight down, 500 mm above the
+  // floor and 200 mm short of the table: clear of every body of the cell.
+  const Eigen::Vector3d p_start(0.700, 0.300, 0.500);
+  const Eigen::Vector3d p_end(0.720, 0.300, 0.500);
   Cell cell = sampleCell();
-  const ToolPath fixed = straightPath("table-top", p_start, p_end, 11, SpinRange{0.0, 0.0});
-  const ToolPath free = straightPath("table-top", p_start, p_end, 11, kFullSpin);
+  const ToolPath fixed = straightPath("world", p_start, p_end, 11, SpinRange{0.0, 0.0});
+  const ToolPath free = straightPath("world", p_start, p_end, 11, kFullSpin);
   {
     Bench open(cell);
     REQUIRE(std::holds_alternative<SolvedSeam>(open.solve(fixed)));
@@ -185,7 +186,7 @@ TEST_CASE("A seam blocked by a clamp at one spin is solved with another spin",
   // neighbours) put the wrist sphere into the clamp; spins about 100° to
   // 140° keep it more than 140 mm away (hand geometry, no source).
   const kinematics::ReachShell shell(cell.arm);
-  const Eigen::Isometry3d X_WX = cell.frames.X_W("table-top");
+  const Eigen::Isometry3d X_WX = cell.frames.X_W("world");
   const Eigen::Isometry3d X_FT = cell.findTool("torch")->X_FT;
   CellBody clamp;
   clamp.name = "spin-clamp";
@@ -228,7 +229,7 @@ TEST_CASE("A seam blocked by a clamp at one spin is solved with another spin",
     REQUIRE(std::holds_alternative<SolvedSeam>(outcome));
     const SolvedSeam& seam = std::get<SolvedSeam>(outcome);
     CAPTURE(seam.waypoints.front().spin / kDeg);
-    verifySolved(seam, free, clamped.setting("table-top"), options, *clamped.workspace);
+    verifySolved(seam, free, clamped.setting("world"), options, *clamped.workspace);
     for (const SolvedPose& pose : seam.waypoints) CHECK(std::abs(pose.spin) > 30.0 * kDeg);
   }
 }
