@@ -6,6 +6,7 @@
 
 #include <filesystem>
 #include <map>
+#include <sstream>
 #include <string>
 #include <variant>
 
@@ -156,6 +157,23 @@ TEST_CASE("plan writes the sample paint programs, and they re-verify on their ow
     verifyProgram(program, job);
     for (const std::string suffix : {"_joints.csv", "_summary.json"}) {
       CHECK(std::filesystem::exists(directory + "/" + name + suffix));
+    }
+    if (name == "panel_coat") {
+      // The job's template output: the sample template writes one card per
+      // record between "CARDS BEGIN <count>" and "CARDS END".
+      std::istringstream cards(test::readText(directory + "/panel_coat_stepcard.txt"));
+      std::string line;
+      int card_lines = 0;
+      bool ended = false;
+      std::string begin;
+      while (std::getline(cards, line)) {
+        if (line.rfind("CARDS BEGIN ", 0) == 0) begin = line;
+        if (line.rfind("CARD ", 0) == 0) ++card_lines;
+        if (line == "CARDS END") ended = true;
+      }
+      CHECK(begin == "CARDS BEGIN " + std::to_string(program.records.size()));
+      CHECK(card_lines == static_cast<int>(program.records.size()));
+      CHECK(ended);
     }
 
     // The process is switched on once per stretch of the tool path with the

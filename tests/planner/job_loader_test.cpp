@@ -43,6 +43,7 @@ std::string validJob(const std::string& prefix) {
   <outputs directory="out">
     <output writer="motion-text" file="a.twm"/>
     <output writer="joint-table" file="a.csv"/>
+    <output writer="template" file="a.txt" template="../templates/card.twt"/>
   </outputs>
 </job>
 )";
@@ -91,9 +92,12 @@ TEST_CASE("A job file loads its cell, seams, patches, transit and outputs in SI"
   CHECK(job.transit.clearance == Approx(0.015).margin(kExact));
   CHECK(job.transit.time_limit == 2.0);
   CHECK(job.transit.seed == 99u);
-  REQUIRE(job.outputs.size() == 2);
+  REQUIRE(job.outputs.size() == 3);
   CHECK(job.outputs[1].writer == "joint-table");
   CHECK(job.outputs[1].path == std::string(TW_TEST_OUTPUT_DIR) + "/out/a.csv");
+  CHECK(job.outputs[1].template_path.empty());
+  // The template is found from the job file's folder, like every input.
+  CHECK(job.outputs[2].template_path == std::string(TW_TEST_OUTPUT_DIR) + "/../templates/card.twt");
 }
 
 TEST_CASE("Every malformed job element is a located error", "[planner][job][errors]") {
@@ -133,6 +137,10 @@ TEST_CASE("Every malformed job element is a located error", "[planner][job][erro
       {"fractional seed", R"(seed="99")", R"(seed="9.5")", "<transit", "whole number"},
       {"repeated output file", R"(file="a.csv")", R"(file="a.twm")", R"(writer="joint-table")",
        "already written"},
+      {"template writer without its template", R"( template="../templates/card.twt")", "",
+       R"(writer="template")", "needs template="},
+      {"template on another writer", R"(writer="template")", R"(writer="summary")",
+       R"(file="a.txt")", "only for writer=\"template\""},
       {"wrong time unit", R"(time-unit="s")", R"(time-unit="ms")", "<job", "time-unit must be"},
       {"unknown frame name via typo in patch", R"(frame="table-top")", R"(frame="tabletop")",
        "<patch", "unknown frame 'tabletop'"},
