@@ -19,6 +19,7 @@
 #include "postproc/atomic_file.hpp"
 #include "postproc/post_processor_registry.hpp"
 #include "postproc/program_template.hpp"
+#include "postproc/review_warnings.hpp"
 #include "postproc/safety_caution.hpp"
 
 namespace tw::cli {
@@ -80,11 +81,23 @@ void printSummary(const planner::Program& program, const std::vector<std::string
                 std::isfinite(line.clearance) ? millimetres(line.clearance).c_str() : "-",
                 line.branch.c_str());
   }
+  // The same warnings as the summary file and the review report: the
+  // planner's own and those of the review margins (speed, clearance,
+  // singularity, joint limits), so that the count here never disagrees.
+  const std::vector<postproc::ReviewWarning> warnings =
+      postproc::reviewWarnings(program, postproc::WriteOptions{});
   std::printf("cycle time %s s (estimate), minimum clearance %s mm, %zu warning(s)\n",
               planner::formatDecimal(planner::cycleTime(program), 2).c_str(),
               std::isfinite(min_clearance) ? millimetres(min_clearance).c_str() : "-",
-              program.warnings.size());
-  for (const std::string& warning : program.warnings) std::printf("  warning: %s\n", warning.c_str());
+              warnings.size());
+  constexpr std::size_t kWarningsShown = 10;
+  for (std::size_t i = 0; i < std::min(warnings.size(), kWarningsShown); ++i) {
+    std::printf("  warning: %s\n", warnings[i].text.c_str());
+  }
+  if (warnings.size() > kWarningsShown) {
+    std::printf("  ... and %zu more (all are in the summary and the review report)\n",
+                warnings.size() - kWarningsShown);
+  }
   for (const std::string& path : written) std::printf("wrote %s\n", path.c_str());
   std::printf("%s\n", postproc::safetyCaution(program).front().c_str());
 }
@@ -106,7 +119,11 @@ nlohmann::json resultJson(const PlanResult& result, const std::vector<std::strin
   if (result.program) {
     json["cycle_time_s"] = planner::cycleTime(*result.program);
     json["records"] = result.program->records.size();
-    json["warnings"] = result.program->warnings;
+    json["warnings"] = nlohmann::json::array();
+    for (const postproc::ReviewWarning& warning :
+         postproc::reviewWarnings(*result.program, postproc::WriteOptions{})) {
+      json["warnings"].push_back(warning.text);
+    }
   }
   json["written"] = written;
   return json;

@@ -6,6 +6,7 @@
 
 #include <filesystem>
 #include <map>
+#include <nlohmann/json.hpp>
 #include <sstream>
 #include <string>
 #include <variant>
@@ -230,24 +231,33 @@ TEST_CASE("plan gives byte-identical outputs on repeat and at any thread count",
   }
 }
 
+std::string samples() { return std::string(TW_SOURCE_DIR) + "/samples/"; }
+
+/// Replaces the first `from` in `text` by `to`; the test fails without one.
+void replaceFirst(std::string& text, const std::string& from, const std::string& to) {
+  const std::size_t at = text.find(from);
+  REQUIRE(at != std::string::npos);
+  text.replace(at, from.size(), to);
+}
+
+/// The sample job's text with every input named by absolute path and its
+/// outputs going to `directory`, for edited copies written elsewhere.
+std::string sampleJobText(const std::string& directory) {
+  std::string job = test::readText(std::string(TW_SOURCE_DIR) + "/samples/jobs/bracket_welds.xml");
+  replaceFirst(job, "../cells/", samples() + "cells/");
+  for (int seam = 0; seam < 4; ++seam) replaceFirst(job, "\"../seams/", "\"" + samples() + "seams/");
+  replaceFirst(job, "../../out/bracket-welds", directory);
+  return job;
+}
+
 TEST_CASE("plan and check exit with 3 for an infeasible job and write nothing",
           "[cli][plan][exit-codes]") {
   // The sample job with its first seam moved 5 m away from the arm.
-  std::string job = test::readText(std::string(TW_SOURCE_DIR) + "/samples/jobs/bracket_welds.xml");
-  const std::string samples = std::string(TW_SOURCE_DIR) + "/samples/";
-  const auto replace = [&](const std::string& from, const std::string& to) {
-    REQUIRE(job.find(from) != std::string::npos);
-    job.replace(job.find(from), from.size(), to);
-  };
-  replace("../cells/", samples + "cells/");
-  replace("../seams/corner_left.csv", test::writeTestFile("far_seam.csv",
-                                                    "x_mm,y_mm,z_mm,nx,ny,nz\n"
-                                                    "5000,0,0,0,0,1\n5100,0,0,0,0,1\n"));
-  replace("../seams/", samples + "seams/");
-  replace("../seams/", samples + "seams/");
-  replace("../seams/", samples + "seams/");
   const std::string directory = outputDirectory("plan_infeasible");
-  replace("../../out/bracket-welds", directory);
+  std::string job = sampleJobText(directory);
+  replaceFirst(job, samples() + "seams/corner_left.csv",
+               test::writeTestFile("far_seam.csv",
+                                   "x_mm,y_mm,z_mm,nx,ny,nz\n5000,0,0,0,0,1\n5100,0,0,0,0,1\n"));
   const std::string job_file = test::writeTestFile("infeasible_job.xml", job);
 
   const test::ToolRun plan = test::runTool("plan '" + job_file + "'");
@@ -260,6 +270,28 @@ TEST_CASE("plan and check exit with 3 for an infeasible job and write nothing",
   CAPTURE(check.output);
   CHECK(check.exit_code == 3);
   CHECK_THAT(check.output, Catch::Contains("corner-right") && Catch::Contains("reachable"));
+}
+
+TEST_CASE("plan counts and lists the same warnings as the summary file", "[cli][plan]") {
+  // The first seam at 300 mm/s, above the 250 mm/s of reduced speed
+  // (ISO 10218-1, 5.6): every move on it is a review warning.
+  const std::string directory = outputDirectory("plan_warnings");
+  std::string job = sampleJobText(directory);
+  replaceFirst(job, "speed=\"10\"", "speed=\"300\"");
+  const std::string job_file = test::writeTestFile("fast_seam_job.xml", job);
+  const test::ToolRun plan = test::runTool("plan '" + job_file + "' --json");
+  CAPTURE(plan.output);
+  REQUIRE(plan.exit_code == 0);
+  const nlohmann::json result = nlohmann::json::parse(plan.output.substr(plan.output.find('{')));
+  const nlohmann::json summary =
+      nlohmann::json::parse(test::readText(directory + "/bracket_welds_summary.json"));
+  REQUIRE(summary["warnings"].is_array());
+  CHECK(summary["warnings"].size() > 10);
+  CHECK(result["warnings"].size() == summary["warnings"].size());
+
+  const test::ToolRun text = test::runTool("plan '" + job_file + "'");
+  CHECK_THAT(text.output, Catch::Contains(std::to_string(summary["warnings"].size()) + " warning(s)") &&
+                              Catch::Contains("more (all are in the summary"));
 }
 
 TEST_CASE("check passes the sample job; plan and check refuse bad input with exit code 2",
