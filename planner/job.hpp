@@ -30,6 +30,10 @@ struct SeamSpec {
   double approach = 0.030;
   double retract = 0.030;
   SamplingOptions sampling;
+  /// The controller's process parameter set for this seam (a weld schedule,
+  /// a dispense program), named in the process events; empty: the process
+  /// kind ("weld", "paint", "dispense").
+  std::string parameter_set;
   int line = 0;  ///< line of the <seam> element in the job file
 };
 
@@ -45,6 +49,8 @@ struct PatchSpec {
   double retract = 0.030;
   /// Largest distance between waypoints along a pass [m] (see SamplingOptions).
   double step = SamplingOptions{}.step;
+  /// As SeamSpec::parameter_set (a spray program); empty: "paint".
+  std::string parameter_set;
   int line = 0;
 };
 

@@ -84,6 +84,10 @@ class JobFileReader {
     spec.speed = kMmToM * positive(element, "speed");
     spec.approach = readLengthOr(file_, element, "approach", spec.approach, true);
     spec.retract = readLengthOr(file_, element, "retract", spec.retract, true);
+    if (const std::optional<std::string> set = file_.optionalText(element, "parameter-set")) {
+      if (set->empty()) file_.fail(element, "parameter-set must not be empty (leave it out for the default)");
+      spec.parameter_set = *set;
+    }
   }
 
   double positive(const XMLElement& element, const char* attribute) const {
@@ -105,7 +109,7 @@ class JobFileReader {
   SeamSpec readSeam(const XMLElement& element, const Cell& cell) const {
     file_.allowOnly(element,
                     {"name", "points", "frame", "tool", "speed", "approach", "retract", "step",
-                     "corner-angle", "direction"},
+                     "corner-angle", "direction", "parameter-set"},
                     {"weld", "paint", "dispense"});
     SeamSpec seam;
     readCommon(element, cell, seam);
@@ -166,7 +170,8 @@ class JobFileReader {
   }
 
   PatchSpec readPatch(const XMLElement& element, const Cell& cell) const {
-    file_.allowOnly(element, {"name", "frame", "tool", "speed", "approach", "retract", "step"},
+    file_.allowOnly(element,
+                    {"name", "frame", "tool", "speed", "approach", "retract", "step", "parameter-set"},
                     {"outline", "paint"});
     PatchSpec patch;
     readCommon(element, cell, patch);

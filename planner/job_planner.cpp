@@ -196,7 +196,9 @@ PlanResult planJob(const Job& job, const PlanOptions& options) {
     complete = transit_to(seam.approach.q, seam.name, static_cast<int>(s));
     if (!complete) break;
     const std::string words = seam.branch.toString();
-    const std::string parameter_set = toString(seam.process);
+    const std::string named_set =
+        std::visit([](const auto& spec) { return spec.parameter_set; }, job.tasks[s]);
+    const std::string parameter_set = named_set.empty() ? toString(seam.process) : named_set;
     const SolvedPose* previous = &seam.approach;
     bool process_on = false;
     const auto linear_move = [&](const SolvedPose& target, double speed, int waypoint) {

@@ -75,7 +75,23 @@ void verifyProgram(const planner::Program& program, const planner::Job& job) {
 
   int motions = 0;
   const kinematics::JointVector* previous = nullptr;
+  // Each task's process parameter set: the job's parameter-set, or else
+  // the process kind's name.
+  std::map<std::string, std::string> parameter_sets;
+  for (const planner::JobTask& task : job.tasks) {
+    std::visit(
+        [&](const auto& spec) {
+          parameter_sets[spec.name] = spec.parameter_set.empty()
+                                          ? planner::toString(paths.at(spec.name).process)
+                                          : spec.parameter_set;
+        },
+        task);
+  }
   for (const planner::ProgramRecord& record : program.records) {
+    if (const auto* event = std::get_if<planner::ProcessEvent>(&record)) {
+      CAPTURE(event->seam);
+      CHECK(event->parameter_set == parameter_sets.at(event->seam));
+    }
     const planner::MotionRecord* motion = std::get_if<planner::MotionRecord>(&record);
     if (motion == nullptr) continue;
     ++motions;

@@ -23,7 +23,8 @@ std::string validJob(const std::string& prefix) {
   <cell file=")" +
          test::sourcePath("samples/cells/bracket_weld_cell.xml") + R"("/>
   <seam name="a" points=")" +
-         prefix + R"(_seam.csv" frame="bracket" tool="torch" speed="12" approach="25" step="3">
+         prefix + R"(_seam.csv" frame="bracket" tool="torch" speed="12" approach="25" step="3"
+        parameter-set="fillet 4 mm">
     <weld work-angle="40" travel-angle="12" tilt="drag" contact-tip-distance="16"/>
   </seam>
   <seam name="b" points=")" +
@@ -64,6 +65,8 @@ TEST_CASE("A job file loads its cell, seams, patches, transit and outputs in SI"
   CHECK(a.approach == Approx(0.025).margin(kExact));
   CHECK(a.retract == Approx(0.030).margin(kExact));  // default
   CHECK(a.sampling.step == Approx(0.003).margin(kExact));
+  CHECK(a.parameter_set == "fillet 4 mm");
+  CHECK(std::get<SeamSpec>(job.tasks[1]).parameter_set.empty());  // default: the process kind
   const WeldParameters& weld = std::get<WeldParameters>(a.process);
   CHECK(*weld.work_angle == Approx(40.0 * kPi / 180.0).margin(kExact));
   CHECK(weld.travel_angle == Approx(12.0 * kPi / 180.0).margin(kExact));
@@ -141,6 +144,8 @@ TEST_CASE("Every malformed job element is a located error", "[planner][job][erro
        R"(writer="template")", "needs template="},
       {"template on another writer", R"(writer="template")", R"(writer="summary")",
        R"(file="a.txt")", "only for writer=\"template\""},
+      {"empty parameter set", R"(parameter-set="fillet 4 mm")", R"(parameter-set="")",
+       R"(<seam name="a")", "parameter-set must not be empty"},
       {"wrong time unit", R"(time-unit="s")", R"(time-unit="ms")", "<job", "time-unit must be"},
       {"unknown frame name via typo in patch", R"(frame="table-top")", R"(frame="tabletop")",
        "<patch", "unknown frame 'tabletop'"},
