@@ -7,6 +7,7 @@
 #include <mutex>
 #include <thread>
 
+#include "kinematics/input_error.hpp"
 #include "planner/tool_path_builder.hpp"
 
 namespace tw::planner {
@@ -38,6 +39,14 @@ JobSolution solveJob(const Job& job, const SeamSolverOptions& options,
       paths.push_back(buildToolPath(patch, *cell.findTool(patch.tool), job.source));
     }
   }
+  for (const auto& [seam, reference] : options.references) {
+    if (reference.size() != static_cast<Eigen::Index>(cell.arm.jointCount())) {
+      throw InputError(job.source, 0,
+                       "the configuration to stay near for seam '" + seam + "' has " +
+                           std::to_string(reference.size()) + " joint values; arm '" +
+                           cell.arm.name() + "' has " + std::to_string(cell.arm.jointCount()));
+    }
+  }
   // One world per tool, built before the workers start (the expensive part).
   std::map<std::string, std::unique_ptr<collision::CollisionWorld>> worlds;
   for (const ToolPath& path : paths) {
@@ -65,7 +74,8 @@ JobSolution solveJob(const Job& job, const SeamSolverOptions& options,
         setting.X_WB = cell.frames.X_W(cell.arm_frame);
         setting.X_WX = cell.frames.X_W(path.frame);
         setting.X_FT = cell.findTool(path.tool)->X_FT;
-        setting.reference = cell.home;
+        const auto earlier = options.references.find(path.name);
+        setting.reference = earlier != options.references.end() ? earlier->second : cell.home;
         solution.tasks[i] = solveSeam(path, setting, options, *workspace);
         if (on_step) {
           const std::lock_guard<std::mutex> lock(step_mutex);

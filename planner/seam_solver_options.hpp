@@ -1,7 +1,11 @@
 #pragma once
 
 #include <Eigen/Core>
+#include <map>
 #include <optional>
+#include <string>
+
+#include "kinematics/joint.hpp"
 
 namespace tw::planner {
 
@@ -49,6 +53,11 @@ struct SeamSolverOptions {
   Eigen::VectorXd weights;
   /// Seams solved at once by solveJob; results do not depend on it.
   int threads = 2;
+  /// By seam (task) name, a configuration to stay near instead of the
+  /// cell's home (used by solveJob as SeamSetting::reference): the seam's
+  /// first waypoint in an earlier program, so that a regenerated program
+  /// keeps each seam's branch, spin and turns wherever they still work.
+  std::map<std::string, kinematics::JointVector> references;
 };
 
 /// Work done by one solve, for benchmarks and reports.

@@ -5,8 +5,10 @@
 #include <filesystem>
 #include <functional>
 #include <iostream>
+#include <map>
 #include <memory>
 #include <nlohmann/json.hpp>
+#include <set>
 #include <string>
 
 #include "kinematics/input_error.hpp"
@@ -17,6 +19,7 @@
 #include "planner/job_planner.hpp"
 #include "planner/report_text.hpp"
 #include "postproc/atomic_file.hpp"
+#include "postproc/motion_text_reader.hpp"
 #include "postproc/post_processor_registry.hpp"
 #include "postproc/program_template.hpp"
 #include "postproc/review_warnings.hpp"
@@ -34,7 +37,55 @@ struct PlanArguments {
   unsigned seed = 0;
   bool json = false;
   std::string planner = "RRTConnect";
+  /// An earlier motion file whose seams' branches to keep (--like).
+  std::string like;
 };
+
+/// What an earlier program says about each of its seams: where it started
+/// and in which branch.
+struct EarlierSeam {
+  kinematics::JointVector q;
+  std::string branch;
+};
+
+/// Reads the earlier program for --like: the first motion of each seam.
+/// Throws tw::InputError when it is not a valid motion file or is for
+/// another arm.
+std::map<std::string, EarlierSeam> earlierSeams(const std::string& path, const planner::Job& job) {
+  const planner::Program program = postproc::readMotionTextFile(path);
+  if (program.metadata.arm != job.cell.arm.name()) {
+    throw InputError(path, 0,
+                     "--like: this program is for arm '" + program.metadata.arm + "', the job's arm is '" +
+                         job.cell.arm.name() + "'");
+  }
+  std::map<std::string, EarlierSeam> seams;
+  for (const planner::ProgramRecord& record : program.records) {
+    const auto* motion = std::get_if<planner::MotionRecord>(&record);
+    if (motion != nullptr && !motion->seam.empty() && seams.count(motion->seam) == 0) {
+      seams[motion->seam] = {motion->q, motion->branch};
+    }
+  }
+  return seams;
+}
+
+/// One line per seam of both programs: kept, or from which branch to which.
+std::vector<std::string> branchChanges(const std::map<std::string, EarlierSeam>& earlier,
+                                       const planner::Program& program) {
+  std::vector<std::string> lines;
+  std::set<std::string> seen;
+  for (const planner::ProgramRecord& record : program.records) {
+    const auto* motion = std::get_if<planner::MotionRecord>(&record);
+    if (motion == nullptr || motion->seam.empty() || !seen.insert(motion->seam).second) continue;
+    const auto before = earlier.find(motion->seam);
+    if (before == earlier.end()) continue;
+    if (before->second.branch != motion->branch) {
+      lines.push_back("seam " + motion->seam + ": branch changed from " + before->second.branch +
+                      " to " + motion->branch);
+    }
+  }
+  return lines;
+}
+
 
 std::string millimetres(double metres) { return planner::formatDecimal(metres * 1000.0, 1); }
 
@@ -181,6 +232,11 @@ int runPlan(const PlanArguments& arguments) {
   ProgressBar bar(stderr, stderrIsTerminal(), seams + (seams + 1) + static_cast<int>(job.outputs.size()));
   planner::PlanOptions options;
   options.solver.threads = arguments.threads;
+  std::map<std::string, EarlierSeam> earlier;
+  if (!arguments.like.empty()) {
+    earlier = earlierSeams(arguments.like, job);
+    for (const auto& [seam, start] : earlier) options.solver.references[seam] = start.q;
+  }
   options.transit_planner = arguments.planner;
   if (arguments.seed > 0) options.seed = arguments.seed;
   options.on_step = [&bar](const std::string& finished) { bar.step(finished); };
@@ -193,9 +249,19 @@ int runPlan(const PlanArguments& arguments) {
                            [&bar](const std::string& file) { bar.step("wrote " + file); });
   }
   bar.finish();
+  std::vector<std::string> changes;
+  if (result.feasible() && !arguments.like.empty()) changes = branchChanges(earlier, *result.program);
   if (arguments.json) {
-    std::cout << resultJson(result, written).dump(2) << "\n";
+    nlohmann::json json = resultJson(result, written);
+    if (!arguments.like.empty()) json["branch_changes"] = changes;
+    std::cout << json.dump(2) << "\n";
   } else if (result.feasible()) {
+    if (!arguments.like.empty()) {
+      std::printf("%s\n", changes.empty()
+                              ? ("every seam kept its branch from " + arguments.like).c_str()
+                              : ("branches that differ from " + arguments.like + ":").c_str());
+      for (const std::string& change : changes) std::printf("  %s\n", change.c_str());
+    }
     printSummary(*result.program, written);
   } else {
     printInfeasible(result);
@@ -261,6 +327,9 @@ void addPlanCommands(CLI::App& app, int& exit_code) {
       ->check(CLI::Range(1u, 4294967295u));
   plan_command->add_option("--planner", plan->planner, "Transit planner (OMPL name)")
       ->check(CLI::IsMember(planner::transitPlannerNames()));
+  plan_command->add_option("--like", plan->like,
+                           "Earlier motion file: keep each seam's branch from it where it still works")
+      ->check(CLI::ExistingFile);
   plan_command->add_flag("--json", plan->json, "Print a machine-readable result on stdout");
   plan_command->callback([plan, &exit_code] { exit_code = runPlan(*plan); });
 

@@ -310,6 +310,59 @@ TEST_CASE("plan counts and lists the same warnings as the summary file", "[cli][
                               Catch::Contains("more (all are in the summary"));
 }
 
+/// Each seam's branch words in a program, by seam name.
+std::map<std::string, std::string> seamBranches(const planner::Program& program) {
+  std::map<std::string, std::string> branches;
+  for (const planner::ProgramRecord& record : program.records) {
+    const auto* motion = std::get_if<planner::MotionRecord>(&record);
+    if (motion != nullptr && !motion->seam.empty()) branches.emplace(motion->seam, motion->branch);
+  }
+  return branches;
+}
+
+TEST_CASE("plan --like keeps each seam's branch from an earlier program", "[cli][plan]") {
+  // An earlier program in other branches: the sample cell with its home's
+  // wrist flipped (axis 4 and 6 half a turn round, axis 5 negated: the same
+  // flange pose), from which the solver prefers flipped wrists.
+  std::string cell = test::sampleCellText();
+  replaceFirst(cell, "<home joints=\"0 -20 10 0 60 0\"/>", "<home joints=\"0 -20 10 180 -60 -180\"/>");
+  const std::string flipped_directory = outputDirectory("plan_like_flipped");
+  std::string job = sampleJobText(flipped_directory);
+  replaceFirst(job, samples() + "cells/bracket_weld_cell.xml",
+               test::writeTestFile("flipped_home_cell.xml", cell));
+  const std::string flipped_job = test::writeTestFile("flipped_home_job.xml", job);
+  REQUIRE(test::runTool("plan '" + flipped_job + "'").exit_code == 0);
+  const std::string earlier_file = flipped_directory + "/bracket_welds.twm";
+  const std::map<std::string, std::string> earlier =
+      seamBranches(postproc::readMotionTextFile(earlier_file));
+
+  const std::string plain_directory = outputDirectory("plan_like_plain");
+  REQUIRE(test::runTool("plan samples/jobs/bracket_welds.xml --output '" + plain_directory + "'")
+              .exit_code == 0);
+  const std::map<std::string, std::string> plain =
+      seamBranches(postproc::readMotionTextFile(plain_directory + "/bracket_welds.twm"));
+  REQUIRE(plain.size() == 4);
+  // Without --like the sample's own home decides, and some branch differs:
+  // otherwise this test could not tell the option from its absence.
+  REQUIRE(plain != earlier);
+
+  const std::string liked_directory = outputDirectory("plan_like_liked");
+  const test::ToolRun liked_run = test::runTool("plan samples/jobs/bracket_welds.xml --output '" +
+                                                liked_directory + "' --like '" + earlier_file + "'");
+  CAPTURE(liked_run.output);
+  REQUIRE(liked_run.exit_code == 0);
+  CHECK_THAT(liked_run.output, Catch::Contains("every seam kept its branch from"));
+  const planner::Program liked = postproc::readMotionTextFile(liked_directory + "/bracket_welds.twm");
+  CHECK(seamBranches(liked) == earlier);
+  const planner::Job sample = planner::loadJob(std::string(TW_SOURCE_DIR) + "/samples/jobs/bracket_welds.xml");
+  verifyProgram(liked, sample);
+
+  // Something that is not a motion file is bad input.
+  CHECK(test::runTool("plan samples/jobs/bracket_welds.xml --output '" + liked_directory +
+                      "' --like samples/jobs/bracket_welds.xml")
+            .exit_code == 2);
+}
+
 TEST_CASE("check passes the sample job; plan and check refuse bad input with exit code 2",
           "[cli][plan][exit-codes]") {
   const test::ToolRun check = test::runTool("check samples/jobs/bracket_welds.xml");
