@@ -166,9 +166,10 @@ CollisionWorld thinPlates(double cell_margin, double self_margin) {
   description.bodies.push_back(
       {"screen", BodyRole::kObstacle, "",
        {test::boxShape(Eigen::Vector3d(0.002, 0.4, 0.4), Eigen::Vector3d(-0.6, 0, 0))}});
+  const kinematics::LinkShape base_plate =
+      test::boxShape(Eigen::Vector3d(0.002, 0.4, 0.4), Eigen::Vector3d(0.6, 0, 0));
   return CollisionWorld(
-      test::sliderArm({test::sphereShape(0.05, Eigen::Vector3d(0, 0, 1.0))},
-                      {test::boxShape(Eigen::Vector3d(0.002, 0.4, 0.4), Eigen::Vector3d(0.6, 0, 0))}),
+      test::sliderArm({test::sphereShape(0.05, Eigen::Vector3d(0, 0, 1.0))}, {base_plate}),
       description);
 }
 
