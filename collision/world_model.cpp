@@ -207,8 +207,10 @@ std::shared_ptr<const WorldModel> buildWorldModel(const kinematics::ArmModel& ar
                                                   const WorldDescription& description) {
   auto model = std::make_shared<WorldModel>(arm);
   model->X_WB = description.X_WB;
-  model->cell_margin = positiveMargin(description.clearance_margin, "clearance margin");
-  model->self_margin = positiveMargin(description.self_margin, "self margin");
+  model->cell_margin = positiveMargin(description.clearance_margin,
+                                      "clearance margin (of the arm and tool from the cell)");
+  model->self_margin = positiveMargin(description.self_margin,
+                                      "self margin (between the arm's links and its tool)");
   model->moving_growth = 0.5 * model->self_margin;
   model->cell_growth = std::max(model->cell_margin - model->moving_growth, 0.0);
   PieceFactory factory(*model);

@@ -137,7 +137,8 @@ TEST_CASE("A non-positive or non-finite margin is refused by name") {
   SECTION("self margin negative") {
     description.self_margin = -0.001;
     CHECK_THROWS_WITH(CollisionWorld(arm, description),
-                      Catch::Contains("self margin must be a positive length"));
+                      Catch::Contains("self margin") &&
+                          Catch::Contains("must be a positive length, got -0.001"));
   }
   SECTION("self margin zero") {
     description.self_margin = 0.0;
@@ -146,7 +147,8 @@ TEST_CASE("A non-positive or non-finite margin is refused by name") {
   SECTION("cell margin not a number") {
     description.clearance_margin = std::numeric_limits<double>::quiet_NaN();
     CHECK_THROWS_WITH(CollisionWorld(arm, description),
-                      Catch::Contains("clearance margin must be a positive length"));
+                      Catch::Contains("clearance margin") &&
+                          Catch::Contains("must be a positive length"));
   }
 }
 
