@@ -59,6 +59,9 @@ StateStatus pairStatus(const fcl::CollisionObjectd& a, const fcl::CollisionObjec
 struct StateSearch {
   const WorldModel* model;
   bool tell_contact;
+  /// The margin of the pairs the current manager query hands on: one query
+  /// is arm and tool against the cell, the other among themselves.
+  double margin;
   StateResult result;
 };
 
@@ -67,7 +70,7 @@ bool stateCallback(fcl::CollisionObjectd* a, fcl::CollisionObjectd* b, void* dat
   const Piece& piece_a = pieceOf(a);
   const Piece& piece_b = pieceOf(b);
   if (!search.model->checks(piece_a, piece_b)) return false;
-  const StateStatus status = pairStatus(*a, *b, search.model->margin, search.tell_contact);
+  const StateStatus status = pairStatus(*a, *b, search.margin, search.tell_contact);
   if (status == StateStatus::kFree) return false;
   search.result = {status, piece_a.body, piece_b.body};
   return true;
@@ -156,7 +159,7 @@ void CollisionWorld::placeCellObjects() {
   for (const Piece& piece : model_->cell) {
     const Eigen::Isometry3d X_WP =
         piece.frame < 0 ? Eigen::Isometry3d::Identity() : fixture_poses_[piece.frame];
-    auto object = std::make_unique<MarginObject>(piece.geometry, 0.5 * model_->margin);
+    auto object = std::make_unique<MarginObject>(piece.geometry, model_->cell_growth);
     object->setTransform(X_WP * piece.X_PS);
     object->updateBounds();
     // FCL hands user data back as void*; the piece is never written through it.
@@ -181,7 +184,8 @@ CollisionWorld CollisionWorld::withFixturePose(const std::string& fixture,
 }
 
 const kinematics::ArmModel& CollisionWorld::arm() const { return model_->arm; }
-double CollisionWorld::clearanceMargin() const { return model_->margin; }
+double CollisionWorld::clearanceMargin() const { return model_->cell_margin; }
+double CollisionWorld::selfMargin() const { return model_->self_margin; }
 int CollisionWorld::bodyCount() const { return static_cast<int>(model_->body_names.size()); }
 
 const std::string& CollisionWorld::bodyName(int index) const {
@@ -195,7 +199,7 @@ std::vector<std::pair<int, int>> CollisionWorld::baseConflicts() const {
   std::vector<std::pair<int, int>> conflicts;
   for (const Piece& piece : model_->moving) {
     if (piece.kind != PieceKind::kLink || piece.frame != 0) continue;
-    MarginObject base(piece.geometry, 0.5 * model_->margin);
+    MarginObject base(piece.geometry, model_->moving_growth);
     base.setTransform(model_->X_WB * piece.X_PS);
     base.updateBounds();
     base.setUserData(const_cast<Piece*>(&piece));
@@ -205,7 +209,7 @@ std::vector<std::pair<int, int>> CollisionWorld::baseConflicts() const {
           std::find(conflicts.begin(), conflicts.end(), pair) != conflicts.end()) {
         continue;
       }
-      if (nearerThan(base, *cell, model_->margin) || eitherInside(base, *cell)) {
+      if (nearerThan(base, *cell, model_->cell_margin) || eitherInside(base, *cell)) {
         conflicts.push_back(pair);
       }
     }
@@ -244,11 +248,14 @@ StateResult CollisionWorld::checkState(const kinematics::JointVector& q,
                                        CollisionWorkspace& workspace,
                                        const StateQuery& query) const {
   poseArm(q, workspace);
-  StateSearch search{model_.get(), query.tell_contact, {}};
+  StateSearch search{model_.get(), query.tell_contact, model_->cell_margin, {}};
   // FCL's manager-against-manager query takes the other manager by non-const
   // pointer but only reads it (the tree walk is a const method).
   workspace.manager_->collide(cell_manager_.get(), &search, stateCallback);
-  if (search.result.valid()) workspace.manager_->collide(&search, stateCallback);
+  if (search.result.valid()) {
+    search.margin = model_->self_margin;
+    workspace.manager_->collide(&search, stateCallback);
+  }
   return search.result;
 }
 
@@ -275,11 +282,17 @@ Clearance CollisionWorld::clearance(const kinematics::JointVector& q,
       pairs.push_back({a.getAABB().distance(b.getAABB()), &a, &b});
     }
   };
+  const bool cell_pairs = query.pairs != PairGroup::kSelf;
+  const bool self_pairs = query.pairs != PairGroup::kCell;
   const std::size_t moving = workspace.objects_.size();
   for (std::size_t i = 0; i < moving; ++i) {
-    for (const auto& cell : cell_objects_) consider(*workspace.objects_[i], *cell);
-    for (std::size_t j = i + 1; j < moving; ++j) {
-      consider(*workspace.objects_[i], *workspace.objects_[j]);
+    if (cell_pairs) {
+      for (const auto& cell : cell_objects_) consider(*workspace.objects_[i], *cell);
+    }
+    if (self_pairs) {
+      for (std::size_t j = i + 1; j < moving; ++j) {
+        consider(*workspace.objects_[i], *workspace.objects_[j]);
+      }
     }
   }
   std::sort(pairs.begin(), pairs.end(),
@@ -306,6 +319,19 @@ double CollisionWorld::motionBound(const kinematics::JointVector& q_start,
   return bound;
 }
 
+double CollisionWorld::selfMotionBound(const kinematics::JointVector& q_start,
+                                       const kinematics::JointVector& q_end) const {
+  double bound = 0.0;
+  for (const Piece& piece : model_->moving) {
+    double reach = 0.0;
+    for (std::size_t j = piece.self_joint_from; j < piece.lever.size(); ++j) {
+      reach += piece.lever[j] * std::abs(q_end[j] - q_start[j]);
+    }
+    bound = std::max(bound, reach);
+  }
+  return bound;
+}
+
 SegmentResult CollisionWorld::checkSegment(const kinematics::JointVector& q_start,
                                            const kinematics::JointVector& q_end,
                                            CollisionWorkspace& workspace) const {
@@ -325,10 +351,12 @@ SegmentResult CollisionWorld::checkSegment(const kinematics::JointVector& q_star
   if (!q_start.allFinite() || !q_end.allFinite()) {
     throw InputError("collision world: segment end has a non-finite value");
   }
-  // Neighbouring states closer than the margin in the motion bound, so no
-  // body point passes more than the margin between two valid states.
-  const double bound = motionBound(q_start, q_end);
-  const int steps = static_cast<int>(std::floor(bound / model_->margin)) + 1;
+  // Neighbouring states closer than each margin in the motion bound of its
+  // pairs, so no body point passes more than a pair's margin, relative to
+  // the other body, between two valid states.
+  const double intervals = std::max(motionBound(q_start, q_end) / model_->cell_margin,
+                                    selfMotionBound(q_start, q_end) / model_->self_margin);
+  const int steps = static_cast<int>(std::floor(intervals)) + 1;
   if (visit(0, steps) || visit(steps, steps)) return segment;
   // Coarse to fine: every interior index once, halving the stride each pass,
   // so a blocked segment is usually found after few checks.
@@ -346,7 +374,7 @@ CollisionWorkspace::CollisionWorkspace(const CollisionWorld& world) : model_(wor
   manager_ = std::make_unique<fcl::DynamicAABBTreeCollisionManagerd>();
   std::vector<fcl::CollisionObjectd*> objects;
   for (const Piece& piece : model_->moving) {
-    auto object = std::make_unique<MarginObject>(piece.geometry, 0.5 * model_->margin);
+    auto object = std::make_unique<MarginObject>(piece.geometry, model_->moving_growth);
     object->setUserData(const_cast<Piece*>(&piece));
     objects.push_back(object.get());
     objects_.push_back(std::move(object));

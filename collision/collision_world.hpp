@@ -45,16 +45,22 @@ struct WorldModel;
 ///   each other during a program), nor any pair in
 ///   WorldDescription::allowed_pairs.
 ///
-/// A state is valid when every checked pair, self pairs included, is at
-/// least the clearance margin apart. Touching counts as collision. Meshes are surfaces: a body wholly
+/// A state is valid when every checked pair is at least its margin apart:
+/// a pair with a cell body the cell margin (WorldDescription::
+/// clearance_margin), a pair of links or of the tool and a link the self
+/// margin (WorldDescription::self_margin). The cell margin stands for what
+/// is uncertain about the cell; the arm's own geometry is known, so raising
+/// the cell margin for a cautious job does not make the wrist collide with
+/// its own tool. Touching counts as collision. Meshes are surfaces: a body wholly
 /// inside a closed mesh is caught by a containment test; inside an open one
 /// it is not.
 class CollisionWorld {
  public:
   /// Loads meshes and builds the world. Throws tw::InputError for a mesh
   /// problem (see loadMesh), a duplicate or empty body name, an unknown
-  /// fixture, an unknown name in allowed_pairs, a non-positive margin or
-  /// tip allowance, or a primitive with non-positive size.
+  /// fixture, an unknown name in allowed_pairs, a non-positive or
+  /// non-finite margin (cell or self) or tip allowance, or a primitive with
+  /// non-positive size.
   CollisionWorld(const kinematics::ArmModel& arm, const WorldDescription& description);
   CollisionWorld(CollisionWorld&&) noexcept;
   CollisionWorld& operator=(CollisionWorld&&) noexcept;
@@ -66,7 +72,10 @@ class CollisionWorld {
   CollisionWorld withFixturePose(const std::string& fixture, const Eigen::Isometry3d& X_WX) const;
 
   const kinematics::ArmModel& arm() const;
+  /// The cell margin [m]: for pairs with a cell body.
   double clearanceMargin() const;
+  /// The self margin [m]: for arm links and the tool among themselves.
+  double selfMargin() const;
   int bodyCount() const;
   /// Name of body `index` (as in StateResult and Clearance); "" for -1.
   const std::string& bodyName(int index) const;
@@ -74,47 +83,58 @@ class CollisionWorld {
   /// triangles dropped from a mesh file. In a stable order.
   const std::vector<std::string>& notes() const;
 
-  /// Pairs (arm base body, cell body) nearer than the clearance margin: the
+  /// Pairs (arm base body, cell body) nearer than the cell margin: the
   /// base is never checked per state (it does not move), so a cell layout
   /// that puts something into the arm's foot shows here. In body order.
   std::vector<std::pair<int, int>> baseConflicts() const;
 
   /// Is the joint vector q (one value per arm joint, not checked against
-  /// limits) free of collision with the clearance margin? Stops at the first
-  /// offending pair. No allocation.
+  /// limits) free of collision, every checked pair at least its margin
+  /// apart? Stops at the first offending pair. No allocation.
   StateResult checkState(const kinematics::JointVector& q, CollisionWorkspace& workspace,
                          const StateQuery& query = {}) const;
 
-  /// The closest checked pair at q with its distance and witness points,
-  /// within ClearanceQuery::tolerance of the true minimum (never below it).
-  /// Costs many state checks: meant for reporting, not for validity.
+  /// The closest checked pair at q of the group ClearanceQuery::pairs (all,
+  /// those with a cell body, or arm and tool among themselves) with its
+  /// distance and witness points, within ClearanceQuery::tolerance of the
+  /// true minimum (never below it). Margins play no part. Costs many state
+  /// checks: meant for reporting, not for validity.
   Clearance clearance(const kinematics::JointVector& q, CollisionWorkspace& workspace,
                       const ClearanceQuery& query = {}) const;
 
   /// Is the straight joint-space segment from q_start to q_end valid? States
-  /// along it (both ends included) are checked with the margin so densely
-  /// that between two neighbours no point of any body moves as far as the
-  /// margin. The motion bound is that of Schwarzer, Saha and Latombe,
-  /// "Adaptive dynamic collision checking for single and multiple
-  /// articulated robots in complex environments", IEEE T-RO 21(3), 2005
-  /// (from memory): the sum over joints of |Δq_j| times the farthest reach
-  /// of the body from joint j's axis. A pair's distance changes by no more
-  /// than one body moves relative to the other (for two links: through the
-  /// joints between them), so every state of a valid segment keeps at least
-  /// half the margin and no obstacle, however thin, is stepped over.
+  /// along it (both ends included) are checked so densely that between two
+  /// neighbours no body moves, relative to any body it is checked against,
+  /// as far as that pair's margin. The motion bound is that of Schwarzer,
+  /// Saha and Latombe, "Adaptive dynamic collision checking for single and
+  /// multiple articulated robots in complex environments", IEEE T-RO 21(3),
+  /// 2005 (from memory): the sum over joints of |Δq_j| times the farthest
+  /// reach of the body from joint j's axis. A pair's distance changes by no
+  /// more than one body moves relative to the other: against the cell that
+  /// is motionBound, between two links or a link and the tool the motion
+  /// through the joints between them, selfMotionBound. The step count is
+  /// set by whichever of bound ÷ margin is larger, so every state of a valid
+  /// segment keeps at least half of each pair's margin and no body, however
+  /// thin, is stepped over.
   SegmentResult checkSegment(const kinematics::JointVector& q_start,
                              const kinematics::JointVector& q_end,
                              CollisionWorkspace& workspace) const;
 
   /// Diagnostics for profiling: poses the arm and runs only the broad phase
   /// of checkState, returning how many checked pairs reach the narrow phase
-  /// (boxes grown by the margin overlap).
+  /// (boxes grown by their pair's margin overlap).
   int countCandidatePairs(const kinematics::JointVector& q, CollisionWorkspace& workspace) const;
 
   /// An upper bound [m] on how far any point of the arm and tool moves along
   /// the straight segment from q_start to q_end.
   double motionBound(const kinematics::JointVector& q_start,
                      const kinematics::JointVector& q_end) const;
+
+  /// An upper bound [m] on how far any arm or tool body moves, along the
+  /// same segment, relative to a body it is checked against on an earlier
+  /// link (only the joints between the two count); 0 without such pairs.
+  double selfMotionBound(const kinematics::JointVector& q_start,
+                         const kinematics::JointVector& q_end) const;
 
  private:
   friend class CollisionWorkspace;

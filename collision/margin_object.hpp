@@ -9,9 +9,9 @@ namespace tw::collision {
 /// An FCL collision object whose broad-phase box is grown by a fixed amount.
 ///
 /// FCL's own computeAABB() bounds a rotated object by a cube around its
-/// bounding sphere and offers no margin; with both sides of a pair grown by
-/// half the clearance margin, the broad phase hands on every pair that
-/// might be nearer than the margin, and no pair that cannot. After
+/// bounding sphere and offers no margin; with the two sides of a pair grown
+/// by amounts that add up to the pair's margin, the broad phase hands on
+/// every pair that might be nearer than it (see WorldModel::moving_growth). After
 /// setTransform() call updateBounds() before the manager's update(): FCL
 /// does not refresh the box itself.
 class MarginObject : public fcl::CollisionObjectd {

@@ -6,9 +6,11 @@ namespace tw::collision {
 
 /// Outcome of a state check, worst first.
 enum class StateStatus {
-  /// Every checked pair at least the clearance margin apart.
+  /// Every checked pair at least its margin apart (the cell margin for a
+  /// pair with a cell body, the self margin for arm and tool among
+  /// themselves).
   kFree,
-  /// Some pair nearer than the margin, and no contact found between them:
+  /// Some pair nearer than its margin, and no contact found between them:
   /// none at all with StateQuery::tell_contact, else none among the parts
   /// looked at before the check stopped.
   kWithinMargin,
@@ -36,19 +38,31 @@ struct StateResult {
   bool valid() const { return status == StateStatus::kFree; }
 };
 
+/// Which checked pairs a clearance query measures.
+enum class PairGroup {
+  kAll,   ///< every checked pair
+  kCell,  ///< an arm link or the tool against a cell body (fixture, workpiece, obstacle)
+  kSelf,  ///< arm links and the tool among themselves
+};
+
 /// Options of CollisionWorld::clearance, set by field name.
 struct ClearanceQuery {
   /// How far [m] the reported distance may lie above the true minimum
   /// between meshes (primitives are exact). 0 asks for the exact minimum,
   /// which between finely meshed near-parallel surfaces costs milliseconds.
   double tolerance = 1e-4;
+  /// The pairs measured: the clearance to the cell is what a programmer
+  /// reviews, the self distance is a property of the arm and its tool.
+  PairGroup pairs = PairGroup::kAll;
 };
 
-/// Result of CollisionWorld::clearance: the closest checked pair. Distance
+/// Result of CollisionWorld::clearance: the closest checked pair of the
+/// queried group (ClearanceQuery::pairs). Distance
 /// [m] is 0 when bodies touch, overlap or contain one another (FCL gives no
 /// depth for meshes). Witness points in the world frame, one on each body
-/// (equal when in contact). body_a is -1 when nothing is checked at all
-/// (distance is then +infinity).
+/// (equal when in contact); in a pair with a cell body, body_a is the arm
+/// link or tool and body_b the cell body. body_a is -1 when the group holds no checked
+/// pair at all (distance is then +infinity).
 struct Clearance {
   double distance = 0.0;
   int body_a = -1;

@@ -58,10 +58,18 @@ struct WorldDescription {
   std::vector<CellBody> bodies;
   /// Absent for a bare flange.
   std::optional<ToolDescription> tool;
-  /// A state whose closest checked pair is nearer than this [m] is invalid:
-  /// meshes only approximate the real equipment. Must be > 0 (the segment
-  /// check relies on it).
+  /// Cell margin [m]: a state in which an arm link or the tool is nearer
+  /// than this to a cell body (fixture, workpiece, obstacle) is invalid. It
+  /// covers what is uncertain about the cell model (meshes that only
+  /// approximate the equipment, calibration, part tolerances), so it may be
+  /// raised for a cautious job. Must be > 0 (the segment check relies on it).
   double clearance_margin = 0.010;
+  /// Self margin [m]: a state in which two checked arm links, or the tool and
+  /// a link, are nearer than this is invalid. The arm's own geometry is
+  /// known exactly up to its meshes, so this stays small whatever the cell
+  /// margin is (environment padding kept apart from self-collision padding:
+  /// common practice in motion planning, no source). Must be > 0.
+  double self_margin = 0.010;
   /// Further pairs of body names never checked against each other, on top of
   /// the built-in rules (adjacent links, the tool and the last link).
   std::vector<std::pair<std::string, std::string>> allowed_pairs;

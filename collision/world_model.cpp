@@ -145,7 +145,7 @@ void allow(WorldModel& model, int a, int b) {
   model.allowed[b * n + a] = 1;
 }
 
-/// Checked pairs of arm and tool bodies nearer than the margin at the zero
+/// Checked pairs of arm and tool bodies nearer than the self margin at the zero
 /// joint vector (clamped into the limits) are most likely a geometry
 /// mistake or a pair to allow: near that pose every state would be invalid.
 /// Each goes into the notes, once, in body order.
@@ -170,14 +170,35 @@ void noteSelfContactsAtRest(WorldModel& model) {
       if (!model.checks(a, b) || std::find(noted.begin(), noted.end(), bodies) != noted.end()) {
         continue;
       }
-      if (!nearerThan(objects[i], objects[j], model.margin)) continue;
+      if (!nearerThan(objects[i], objects[j], model.self_margin)) continue;
       noted.push_back(bodies);
       model.notes.push_back("\"" + model.body_names[bodies.first] + "\" and \"" +
                             model.body_names[bodies.second] +
-                            "\" are nearer than the clearance margin at the zero joint "
+                            "\" are nearer than the self margin at the zero joint "
                             "vector: fix their geometry or allow the pair");
     }
   }
+}
+
+/// Sets every moving piece's self_joint_from from the pairs it is checked in.
+void findSelfJoints(WorldModel& model) {
+  for (Piece& piece : model.moving) {
+    piece.self_joint_from = piece.lever.size();
+    for (const Piece& other : model.moving) {
+      if (other.frame < piece.frame && model.checks(piece, other)) {
+        piece.self_joint_from =
+            std::min(piece.self_joint_from, static_cast<std::size_t>(other.frame));
+      }
+    }
+  }
+}
+
+double positiveMargin(double margin, const std::string& what) {
+  if (!(margin > 0.0) || !std::isfinite(margin)) {
+    throw InputError("collision world: the " + what + " must be a positive length, got " +
+                     std::to_string(margin) + " m");
+  }
+  return margin;
 }
 
 }  // namespace
@@ -186,11 +207,12 @@ std::shared_ptr<const WorldModel> buildWorldModel(const kinematics::ArmModel& ar
                                                   const WorldDescription& description) {
   auto model = std::make_shared<WorldModel>(arm);
   model->X_WB = description.X_WB;
-  if (!(description.clearance_margin > 0.0) || !std::isfinite(description.clearance_margin)) {
-    throw InputError("collision world: the clearance margin must be a positive length, got " +
-                     std::to_string(description.clearance_margin) + " m");
-  }
-  model->margin = description.clearance_margin;
+  model->cell_margin = positiveMargin(description.clearance_margin,
+                                      "clearance margin (of the arm and tool from the cell)");
+  model->self_margin = positiveMargin(description.self_margin,
+                                      "self margin (between the arm's links and its tool)");
+  model->moving_growth = 0.5 * model->self_margin;
+  model->cell_growth = std::max(model->cell_margin - model->moving_growth, 0.0);
   PieceFactory factory(*model);
 
   const int joints = arm.jointCount();
@@ -289,6 +311,7 @@ std::shared_ptr<const WorldModel> buildWorldModel(const kinematics::ArmModel& ar
   for (const auto& [first, second] : description.allowed_pairs) {
     allow(*model, bodyIndex(*model, first), bodyIndex(*model, second));
   }
+  findSelfJoints(*model);
   noteSelfContactsAtRest(*model);
   return model;
 }

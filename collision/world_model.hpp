@@ -38,6 +38,11 @@ struct Piece {
   /// Moving pieces: per joint, the most any point of the piece moves per
   /// unit of that joint's motion [m/rad or m/m] (0 for joints after it).
   std::vector<double> lever;
+  /// Moving pieces: the first joint (0-based) that moves this piece relative
+  /// to a piece it is checked against on an earlier link, or lever.size()
+  /// when there is none. Joints before it move both alike, so they do not
+  /// change their distance.
+  std::size_t self_joint_from = 0;
 };
 
 /// The immutable part of a collision world, shared by the world, its
@@ -47,7 +52,16 @@ struct WorldModel {
 
   kinematics::ArmModel arm;
   Eigen::Isometry3d X_WB = Eigen::Isometry3d::Identity();
-  double margin = 0.0;
+  /// WorldDescription::clearance_margin and self_margin [m].
+  double cell_margin = 0.0;
+  double self_margin = 0.0;
+  /// Broad-phase box growth [m] of the moving and the cell objects: two
+  /// moving boxes grown by half the self margin each meet whenever their
+  /// pieces are nearer than it, and a moving and a cell box whenever their
+  /// pieces are nearer than the cell margin (more, when the cell margin is
+  /// below half the self margin: a box never shrinks).
+  double moving_growth = 0.0;
+  double cell_growth = 0.0;
   std::vector<std::string> body_names;
   std::vector<std::string> fixture_names;
   /// Arm and tool pieces, in body order.

@@ -11,6 +11,7 @@ collision::WorldDescription cellWorldDescription(const Cell& cell, const Tool& t
   collision::WorldDescription description;
   description.X_WB = cell.frames.X_W(cell.arm_frame);
   description.clearance_margin = options.clearance_margin;
+  description.self_margin = options.self_margin;
   for (const CellBody& body : cell.bodies) {
     collision::CellBody out;
     out.name = body.name;

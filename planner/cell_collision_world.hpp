@@ -9,10 +9,16 @@ namespace tw::planner {
 
 /// How a cell becomes a collision world for process moves. Lengths [m].
 struct CellCollisionOptions {
-  /// Closest allowed distance between checked bodies. 10 mm: common
-  /// practice, no source (meshes only approximate the real equipment;
-  /// DESIGN.md §6 asks for a margin by default).
+  /// Closest allowed distance of the arm and tool to a cell body (fixture,
+  /// workpiece, obstacle). 10 mm: common practice, no source (meshes only
+  /// approximate the real equipment; DESIGN.md §6 asks for a margin by
+  /// default). planJob replaces it with the job's transit clearance.
   double clearance_margin = 0.010;
+  /// Closest allowed distance between checked arm links, and between the
+  /// tool and a link: the arm's own geometry is known, so it does not grow
+  /// with the cell margin. 10 mm: common practice, no source (the link
+  /// meshes or primitives only approximate the castings and hose package).
+  double self_margin = 0.010;
   /// Radius of the ball about the TCP inside which the tool may touch a
   /// workpiece. 40 mm: a torch nozzle or bead tip that works at the seam is
   /// a few centimetres long (common practice, no source); fixtures and

@@ -7,7 +7,7 @@
 namespace tw::planner::detail {
 
 /// OMPL state validity from CollisionWorld::checkState with the world's
-/// clearance margin, for a RealVectorStateSpace whose dimensions are the arm's
+/// margins, for a RealVectorStateSpace whose dimensions are the arm's
 /// joints in chain order [rad] or [m]. States outside the space's bounds (the
 /// joint limits) are invalid. Thread-safe through the guarded workspace.
 class CollisionValidityChecker : public ompl::base::StateValidityChecker {

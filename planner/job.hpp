@@ -62,8 +62,11 @@ struct TransitSettings {
   /// Fraction of each joint's maximum velocity, 0 < f ≤ 1. 0.5: common
   /// practice, no source (a cautious first run).
   double joint_speed_fraction = 0.5;
-  /// Distance kept from every body on transits [m]. 10 mm: common practice,
-  /// no source (meshes are approximations of the real equipment).
+  /// Distance the arm and tool keep from every cell body (fixture,
+  /// workpiece, obstacle) on transits [m]; between the arm's own links and
+  /// its tool only the base self margin holds (CellCollisionOptions::
+  /// self_margin). 10 mm: common practice, no source (meshes are
+  /// approximations of the real equipment).
   double clearance = 0.010;
   /// Planning time limit per transit [s]. 1 s: common practice, no source.
   double time_limit = 1.0;

@@ -60,8 +60,13 @@ class ProgramBuilder {
         kinematics::singularityMeasures(job_.cell.arm, record.q);
     if (measures.wrist) record.singularity_margin = *measures.wrist;
     if (options_.measure_clearance) {
-      // Infinite when the world checks no pair at all: nothing to report.
-      const double distance = world.clearance(record.q, workspace).distance;
+      // To the cell only: the arm's distance to its own tool is fixed by
+      // design and would hide the fixtures and parts a programmer looks for.
+      // Infinite when the world checks no pair with a cell body: nothing to
+      // report.
+      collision::ClearanceQuery query;
+      query.pairs = collision::PairGroup::kCell;
+      const double distance = world.clearance(record.q, workspace, query).distance;
       if (std::isfinite(distance)) record.clearance = distance;
     }
     program_.records.push_back(std::move(record));
@@ -131,6 +136,8 @@ PlanResult planJob(const Job& job, const PlanOptions& options) {
   const Tool& tool = toolOf(job, tool_name);
   const kinematics::ArmModel& arm = job.cell.arm;
 
+  // The job's clearance is about the cell; self pairs keep the base margin
+  // of options.collision.
   CellCollisionOptions transit_collision = options.collision;
   transit_collision.clearance_margin = job.transit.clearance;
   const collision::CollisionWorld world = buildCellCollisionWorld(job.cell, tool, transit_collision);

@@ -29,7 +29,8 @@ struct PlanOptions {
   /// turned on the spot takes angle / rate. 90°/s: common practice, no
   /// source (slow enough for a torch and its hose package).
   double orientation_speed = 1.5707963267948966;
-  /// Measure the clearance at every motion target for the outputs (costs
+  /// Measure the clearance to the cell (CollisionWorld::clearance over the
+  /// pairs with a cell body) at every motion target for the outputs (costs
   /// about a millisecond per record on the demo cell).
   bool measure_clearance = true;
   /// Generator name and version written into every program.
@@ -78,7 +79,9 @@ void requireOneTool(const Job& job);
 /// at the job's joint speed fraction; linear moves at their TCP speed,
 /// lowered where a joint would exceed its velocity limit, and reported),
 /// and assemble the Program with its metadata (input file hashes, seed) and
-/// per-record branch, clearance and singularity margin.
+/// per-record branch, clearance to the cell and singularity margin. Transits
+/// keep the job's transit clearance from every cell body and the base self
+/// margin of options.collision between the arm's links and its tool.
 ///
 /// The program starts with a zero-length joint move that states the home
 /// position (where the arm is assumed to be), and ends back at home.

@@ -16,7 +16,7 @@ enum class RejectReason {
   kJointLimit,        ///< reachable, but a joint is outside its limits
   kWristSingularity,  ///< axis 5 within the hard margin of 0 or ±180°
   kWristTwist,        ///< |q4| + |q6| above the dress-pack limit
-  kCollision,         ///< a checked pair nearer than the clearance margin
+  kCollision,         ///< a checked pair nearer than its margin (cell or self)
 };
 inline constexpr int kRejectReasonCount = 5;
 const char* toString(RejectReason reason);
@@ -27,7 +27,7 @@ enum class StepReason {
   kJointJump,        ///< a joint moves more than the bound for the TCP travel
   kDiscontinuous,    ///< the joint-space midpoint leaves the Cartesian line
   kInterpolation,    ///< the linear move cannot be followed in the branch within limits
-  kMotionCollision,  ///< the linear move comes nearer than the margin to a body
+  kMotionCollision,  ///< the linear move brings a checked pair nearer than its margin
 };
 inline constexpr int kStepReasonCount = 5;
 const char* toString(StepReason reason);

@@ -79,7 +79,7 @@ const std::vector<std::string>& transitPlannerNames();
 
 /// Plans collision-free joint-space transits in one collision world with
 /// OMPL. The state space is a box of the arm's joint limits; states are valid
-/// by CollisionWorld::checkState (with the world's clearance margin) and
+/// by CollisionWorld::checkState (with the world's cell and self margins) and
 /// motions by CollisionWorld::checkSegment, so no thin obstacle is stepped
 /// over. Every accepted path is re-checked segment by segment with a
 /// workspace of its own (recheckPath) before it is returned; a path that

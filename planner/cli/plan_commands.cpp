@@ -103,7 +103,8 @@ void printInfeasible(const PlanResult& result) {
   std::printf("no program written: the job is infeasible as it stands\n");
 }
 
-/// Cycle time and minimum clearance per seam and in total, from the program.
+/// Cycle time and minimum clearance to the cell per seam and in total, from
+/// the program.
 void printSummary(const planner::Program& program, const std::vector<std::string>& written) {
   struct SeamLine {
     double start = 0.0, end = 0.0, clearance = INFINITY;
@@ -137,7 +138,7 @@ void printSummary(const planner::Program& program, const std::vector<std::string
   // singularity, joint limits), so that the count here never disagrees.
   const std::vector<postproc::ReviewWarning> warnings =
       postproc::reviewWarnings(program, postproc::WriteOptions{});
-  std::printf("cycle time %s s (estimate), minimum clearance %s mm, %zu warning(s)\n",
+  std::printf("cycle time %s s (estimate), minimum clearance to the cell %s mm, %zu warning(s)\n",
               planner::formatDecimal(planner::cycleTime(program), 2).c_str(),
               std::isfinite(min_clearance) ? millimetres(min_clearance).c_str() : "-",
               warnings.size());

@@ -51,8 +51,10 @@ struct MotionRecord {
   /// The IK branch of `q` in words, e.g. "shoulder front, elbow up, wrist
   /// not flipped"; empty when the planner does not say.
   std::string branch;
-  /// Smallest distance between arm + tool and the cell during the motion [m],
-  /// when the planner has measured it.
+  /// Distance [m] from arm + tool to the nearest cell body (fixture,
+  /// workpiece, obstacle) at the motion's target, when the planner has
+  /// measured it; the arm's distances to its own links and tool are not
+  /// part of it.
   std::optional<double> clearance;
   /// How far the target stays from the nearest singular configuration the
   /// planner checks, as an angle [rad] (for a spherical wrist: |axis 5|).

@@ -54,12 +54,14 @@ kinematics::LinkShape meshShape(const std::string& path, const Eigen::Isometry3d
   return shape;
 }
 
-kinematics::ArmModel sliderArm(const std::vector<kinematics::LinkShape>& shapes) {
+kinematics::ArmModel sliderArm(const std::vector<kinematics::LinkShape>& shapes,
+                               const std::vector<kinematics::LinkShape>& base_shapes) {
   kinematics::ArmDescription description;
   description.name = "slider";
   description.joints.push_back(joint("slide", kinematics::JointType::kPrismatic, 2.0));
   description.links.resize(2);
   description.links[0].name = "base";
+  description.links[0].shapes = base_shapes;
   description.links[1].name = "carriage";
   description.links[1].shapes = shapes;
   return kinematics::ArmModel(std::move(description));

@@ -17,8 +17,9 @@ kinematics::LinkShape meshShape(const std::string& path, const Eigen::Isometry3d
 
 /// One prismatic joint "slide" along the base x axis (±2 m) carrying the
 /// link "carriage" with `shapes`; the flange is at the carriage origin,
-/// axes aligned with the base. The base has no geometry.
-kinematics::ArmModel sliderArm(const std::vector<kinematics::LinkShape>& shapes);
+/// axes aligned with the base. The base (link "base") carries `base_shapes`.
+kinematics::ArmModel sliderArm(const std::vector<kinematics::LinkShape>& shapes,
+                               const std::vector<kinematics::LinkShape>& base_shapes = {});
 
 /// Revolute joints about z, each `spacing` along the previous link's x
 /// axis (the first at the base origin), ±π; link i carries shapes[i]

@@ -79,6 +79,7 @@ std::optional<int> firstCollidingSegment(const collision::CollisionWorld& world,
 
 collision::WorldDescription withMargin(collision::WorldDescription description, double factor) {
   description.clearance_margin *= factor;
+  description.self_margin *= factor;
   return description;
 }
 

@@ -32,14 +32,15 @@ kinematics::JointVector demoGoal();
 /// Dense independent re-check, separate from the planner's segment check:
 /// every segment is cut into pieces over which, by CollisionWorld::
 /// motionBound, no point of the arm or tool moves more than `step` [m], and
-/// every state between pieces is checked with `world`'s margin. Returns the
+/// every state between pieces is checked with `world`'s margins. Returns the
 /// index of the first colliding segment, or nullopt when the path is free.
 std::optional<int> firstCollidingSegment(const collision::CollisionWorld& world,
                                          const JointPath& path, double step = 0.001);
 
-/// The same description with the clearance margin scaled by `factor`, for a
-/// dense re-check world: a segment valid by checkSegment keeps at least half
-/// the margin (collision_world.hpp), so 0.4 of it must hold everywhere.
+/// The same description with both margins (cell and self) scaled by
+/// `factor`, for a dense re-check world: a segment valid by checkSegment
+/// keeps at least half of each pair's margin (collision_world.hpp), so 0.4
+/// of it must hold everywhere.
 collision::WorldDescription withMargin(collision::WorldDescription description, double factor);
 
 }  // namespace tw::planner::test
