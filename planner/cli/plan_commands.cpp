@@ -103,6 +103,19 @@ void printInfeasible(const PlanResult& result) {
   std::printf("no program written: the job is infeasible as it stands\n");
 }
 
+/// What a kind of review warning is about, for the summary's counts.
+const char* warningKindWords(postproc::WarningKind kind) {
+  switch (kind) {
+    case postproc::WarningKind::kPlanner: return "from the planner";
+    case postproc::WarningKind::kReducedSpeed:
+      return "moves above the reduced speed (run them first at reduced speed)";
+    case postproc::WarningKind::kClearance: return "with little clearance to the cell";
+    case postproc::WarningKind::kSingularity: return "near the wrist singularity";
+    case postproc::WarningKind::kJointLimit: return "near a joint limit";
+  }
+  return "other";
+}
+
 /// Cycle time and minimum clearance to the cell per seam and in total, from
 /// the program.
 void printSummary(const planner::Program& program, const std::vector<std::string>& written) {
@@ -142,6 +155,13 @@ void printSummary(const planner::Program& program, const std::vector<std::string
               planner::formatDecimal(planner::cycleTime(program), 2).c_str(),
               std::isfinite(min_clearance) ? millimetres(min_clearance).c_str() : "-",
               warnings.size());
+  // Counts by kind first: a fast paint job can have a warning on every
+  // move, which is one fact, not seventy.
+  std::map<postproc::WarningKind, std::size_t> by_kind;
+  for (const postproc::ReviewWarning& warning : warnings) ++by_kind[warning.kind];
+  for (const auto& [kind, count] : by_kind) {
+    std::printf("  %zu %s\n", count, warningKindWords(kind));
+  }
   constexpr std::size_t kWarningsShown = 10;
   for (std::size_t i = 0; i < std::min(warnings.size(), kWarningsShown); ++i) {
     std::printf("  warning: %s\n", warnings[i].text.c_str());

@@ -308,6 +308,9 @@ TEST_CASE("plan counts and lists the same warnings as the summary file", "[cli][
   const test::ToolRun text = test::runTool("plan '" + job_file + "'");
   CHECK_THAT(text.output, Catch::Contains(std::to_string(summary["warnings"].size()) + " warning(s)") &&
                               Catch::Contains("more (all are in the summary"));
+  // All of them are of one kind here, counted once by kind.
+  CHECK_THAT(text.output, Catch::Contains(std::to_string(summary["warnings"].size()) +
+                                          " moves above the reduced speed"));
 }
 
 /// Each seam's branch words in a program, by seam name.
