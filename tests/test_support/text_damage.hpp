@@ -19,6 +19,8 @@ namespace tw::test {
 inline const std::string kXmlDamage = "<>=\"/!?-+.e0123456789 \nnaif_xyz";
 /// CSV: separators, digits, signs, exponents, comments, blanks and line breaks.
 inline const std::string kCsvDamage = ",.-+e0123456789 \t\n\r#nai_R";
+/// OBJ meshes: vertex and face keywords, index separators, numbers, comments.
+inline const std::string kObjDamage = "vf/.-+e0123456789 \n#naix";
 /// Templates: section and comment marks, placeholder brackets, decimals, text.
 inline const std::string kTemplateDamage = "@#[];%0123456789 \n\r-_jnxqz";
 
