@@ -130,6 +130,10 @@ std::string sampleJobText() {
   return text;
 }
 
+constexpr double kDeg = 3.14159265358979323846 / 180.0;
+// Limits are compared in radians after the degree conversion; allow its rounding.
+constexpr double kAngleRounding = 1e-12;
+
 /// Checks what job.hpp and job_loader.hpp promise of a loaded seam.
 void checkSeam(const SeamSpec& seam, const Cell& cell) {
   CAPTURE(seam.name);
@@ -141,21 +145,22 @@ void checkSeam(const SeamSpec& seam, const Cell& cell) {
   CHECK(seam.retract >= 0.0);
   CHECK(seam.sampling.step > 0.0);
   CHECK(seam.sampling.corner_angle > 0.0);
-  CHECK(seam.sampling.corner_angle <= 170.0 * 3.14159265358979323846 / 180.0 + 1e-12);
+  CHECK(seam.sampling.corner_angle <= 170.0 * kDeg + kAngleRounding);
   // A point list has at least two points, finite, with unit normals.
   REQUIRE(seam.points.points.size() >= 2);
   for (const SeamPoint& point : seam.points.points) {
     CHECK(point.p_XP.allFinite());
-    CHECK(point.normal.norm() == Approx(1.0).margin(1e-12));  // normalised on reading
+    // Normalised on reading: unit to rounding.
+    CHECK(point.normal.norm() == Approx(1.0).margin(1e-12));
   }
   REQUIRE(std::holds_alternative<WeldParameters>(seam.process));  // the sample welds
   const WeldParameters& weld = std::get<WeldParameters>(seam.process);
   CHECK(weld.travel_angle >= 0.0);
-  CHECK(weld.travel_angle <= 45.0 * 3.14159265358979323846 / 180.0 + 1e-12);
+  CHECK(weld.travel_angle <= 45.0 * kDeg + kAngleRounding);
   CHECK(weld.contact_tip_distance > 0.0);
   if (weld.work_angle) {
     CHECK(*weld.work_angle > 0.0);
-    CHECK(*weld.work_angle < 3.14159265358979323846);
+    CHECK(*weld.work_angle < 180.0 * kDeg);
   }
 }
 
