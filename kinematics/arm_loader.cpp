@@ -1,6 +1,7 @@
 #include "kinematics/arm_loader.hpp"
 
 #include <map>
+#include <set>
 
 #include "kinematics/input_error.hpp"
 #include "kinematics/urdf_chain.hpp"
@@ -66,6 +67,14 @@ class ArmFileReader {
     if (std::optional<std::string> problem = jointProblem(joint)) file_.fail(element, *problem);
   }
 
+  /// The name of a joint entry; a name already in `names` is an error at this
+  /// entry (ArmModel would reject it too, but without the line).
+  std::string jointName(const Element& entry, std::set<std::string>& names) const {
+    std::string name = file_.text(entry, "name");
+    if (!names.insert(name).second) file_.fail(entry, "joint name '" + name + "' is repeated");
+    return name;
+  }
+
   /// The <joints> list: one entry per joint name, in order.
   std::vector<const Element*> jointEntries(const Element& root, std::size_t expected) const {
     const Element& list = file_.child(root, "joints");
@@ -95,11 +104,12 @@ class ArmFileReader {
 
     std::vector<JointSpec> limits(6);
     const std::vector<const Element*> entries = jointEntries(root, 6);
+    std::set<std::string> names;
     for (int i = 0; i < 6; ++i) {
       const Element& entry = *entries[i];
       file_.allowOnly(entry, {"name", "min", "max", "max-velocity", "max-acceleration", "sign",
                               "zero-offset"});
-      limits[i].name = file_.text(entry, "name");
+      limits[i].name = jointName(entry, names);
       readMotionLimits(entry, limits[i], true);
       geometry.sign[i] = file_.optionalNumber(entry, "sign").value_or(1.0);
       geometry.zero_offset[i] = kDegToRad * file_.optionalNumber(entry, "zero-offset").value_or(0.0);
@@ -120,12 +130,13 @@ class ArmFileReader {
     if (file_.optionalChild(root, "joints") != nullptr) {
       file_.fail(root, "<joints> is not used with <serial-chain>; limits go on its <joint> entries");
     }
+    std::set<std::string> names;
     for (const Element* entry = element.FirstChildElement("joint"); entry != nullptr;
          entry = entry->NextSiblingElement("joint")) {
       file_.allowOnly(*entry, {"name", "type", "xyz", "rpy", "quaternion", "axis", "min", "max",
                                "max-velocity", "max-acceleration"});
       JointSpec joint;
-      joint.name = file_.text(*entry, "name");
+      joint.name = jointName(*entry, names);
       joint.type = file_.choice(*entry, "type", {"revolute", "prismatic"}) == 0
                        ? JointType::kRevolute
                        : JointType::kPrismatic;
@@ -144,9 +155,10 @@ class ArmFileReader {
     UrdfChain chain =
         loadUrdfChain(path, file_.text(element, "base-link"), file_.text(element, "tip-link"));
     const std::vector<const Element*> entries = jointEntries(root, chain.joints.size());
+    std::set<std::string> names;
     for (std::size_t i = 0; i < entries.size(); ++i) {
       file_.allowOnly(*entries[i], {"name", "max-acceleration"});
-      const std::string name = file_.text(*entries[i], "name");
+      const std::string name = jointName(*entries[i], names);
       if (name != chain.joints[i].name) {
         file_.fail(*entries[i], "expected joint '" + chain.joints[i].name +
                                     "' here (the URDF chain's order), found '" + name + "'");
@@ -167,7 +179,8 @@ class ArmFileReader {
          link = link->NextSiblingElement("link")) {
       file_.allowOnly(*link, {"index"}, {"mesh", "box", "cylinder", "sphere", "capsule"});
       const double index = file_.number(*link, "index");
-      if (index != static_cast<int>(index) || index < 0 || index > joint_count) {
+      // Range first: converting a double beyond int's range to int is undefined.
+      if (index < 0 || index > joint_count || index != static_cast<int>(index)) {
         file_.fail(*link, "index must be an integer from 0 (base) to " + std::to_string(joint_count));
       }
       if (seen[static_cast<int>(index)]) file_.fail(*link, "link index repeated");

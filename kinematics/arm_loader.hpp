@@ -14,8 +14,8 @@ namespace tw::kinematics {
 ///
 /// Throws tw::InputError naming the file, the line and what was expected for
 /// every problem: missing file, unknown element or attribute, missing or
-/// non-numeric value, negative length, min limit above max, unknown joint
-/// type, unknown units, an unreadable URDF.
+/// non-numeric value, negative length, min limit above max, a repeated joint
+/// name, unknown joint type, unknown units, an unreadable URDF.
 ArmModel loadArmDescription(const std::string& path);
 
 }  // namespace tw::kinematics

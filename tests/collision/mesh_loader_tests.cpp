@@ -3,11 +3,13 @@
 #include <cstdint>
 #include <cstring>
 #include <limits>
+#include <random>
 #include <string>
 
 #include "collision/mesh_loader.hpp"
 #include "kinematics/input_error.hpp"
 #include "tests/collision/mesh_files.hpp"
+#include "tests/test_support/text_damage.hpp"
 
 namespace tw::collision {
 namespace {
@@ -143,6 +145,45 @@ TEST_CASE("Every bad mesh gives an error naming the file and the problem") {
     CHECK_THAT(errorOf(kOut + "/tetra_bad_scale.stl", 0.0),
                Catch::Contains("tetra_bad_scale.stl") && Catch::Contains("positive"));
   }
+}
+
+TEST_CASE("Randomly damaged OBJ meshes either load or give an error naming the file",
+          "[mesh][errors]") {
+  const std::string original =
+      tw::test::readTextFile(std::string(TW_SOURCE_DIR) + "/samples/cells/meshes/gusset.obj");
+  const std::string path = kOut + "/damaged_mesh.obj";
+  std::mt19937 random(259);  // fixed seed: the same damage on every run
+  int accepted = 0;
+  int rejected = 0;
+  for (int trial = 0; trial < 500; ++trial) {
+    const std::string text = tw::test::damaged(original, tw::test::kObjDamage, random);
+    CAPTURE(trial, text);
+    test::writeText(path, text);
+    try {
+      const TriangleMesh mesh = loadMesh(path, 0.001);
+      ++accepted;
+      // The guarantees of mesh_loader.hpp: triangles, finite vertices, every
+      // index naming a vertex, no triangle without area.
+      REQUIRE_FALSE(mesh.triangles.empty());
+      for (const Eigen::Vector3d& vertex : mesh.vertices) CHECK(vertex.allFinite());
+      const int count = static_cast<int>(mesh.vertices.size());
+      for (const std::array<int, 3>& triangle : mesh.triangles) {
+        for (const int index : triangle) {
+          REQUIRE(index >= 0);
+          REQUIRE(index < count);
+        }
+        const Eigen::Vector3d& a = mesh.vertices[triangle[0]];
+        CHECK((mesh.vertices[triangle[1]] - a).cross(mesh.vertices[triangle[2]] - a).norm() > 0.0);
+      }
+    } catch (const InputError& error) {
+      ++rejected;
+      // The importer reports no line; the error names the file.
+      CHECK(error.file() == path);
+    }
+  }
+  // Both outcomes occur, so the loop exercised the error paths and the loader.
+  CHECK(accepted > 0);
+  CHECK(rejected > 0);
 }
 
 }  // namespace

@@ -2,12 +2,16 @@
 // agree; every malformed file gives one clear, located error.
 #include <catch2/catch.hpp>
 
+#include <cmath>
 #include <fstream>
+#include <random>
+#include <set>
 
 #include "kinematics/arm_loader.hpp"
 #include "kinematics/forward_kinematics.hpp"
 #include "kinematics/input_error.hpp"
 #include "tests/kinematics/test_arms.hpp"
+#include "tests/test_support/text_damage.hpp"
 
 using namespace tw::kinematics;
 
@@ -147,6 +151,26 @@ TEST_CASE("Malformed arm files give one clear, located error", "[arm-file][error
     CHECK(error.line() == 5);
     CHECK_THAT(error.what(), Catch::Contains("lower limit is above the upper limit"));
   }
+  SECTION("repeated joint name") {
+    // Found by the damaged-file test below (seed 6400, trial 404): the model
+    // rejected the arm, but without a line.
+    const tw::InputError error = loadError(
+        "repeated_name.xml",
+        orthoFile(kGoodOrtho, "<joint name=\"j2\" min=\"-100\" max=\"100\" max-velocity=\"100\" "
+                              "max-acceleration=\"300\"/>"));
+    CHECK(error.line() == 6);  // the second "j2", the file's own j2
+    CHECK_THAT(error.what(), Catch::Contains("joint name 'j2' is repeated"));
+  }
+  SECTION("link index far beyond the joints") {
+    // An index beyond int's range was converted to int before its range was
+    // checked (undefined behaviour, reported by -fsanitize=float-cast-overflow).
+    std::string text = orthoFile(kGoodOrtho, kGoodJoint1);
+    text.insert(text.find("</arm-description>"),
+                "  <link-geometry><link index=\"1e10\"/></link-geometry>\n");
+    const tw::InputError error = loadError("huge_index.xml", text);
+    CHECK(error.line() == 12);
+    CHECK_THAT(error.what(), Catch::Contains("index must be an integer from 0 (base) to 6"));
+  }
   SECTION("zero velocity") {
     const tw::InputError error = loadError(
         "zero_velocity.xml",
@@ -212,4 +236,121 @@ TEST_CASE("Malformed arm files give one clear, located error", "[arm-file][error
     CHECK(error.file() == urdf);
     CHECK_THAT(error.what(), Catch::Contains("does not descend"));
   }
+}
+
+namespace {
+
+/// Checks what arm_model.hpp promises of every arm it holds: 1 to kMaxJoints
+/// joints with unique names, finite poses, unit axes, lower ≤ upper, revolute
+/// ranges within 720°, positive rates, and link geometry for none or every
+/// link with positive sizes and finite, orthonormal shape poses.
+void checkArmGuarantees(const ArmModel& arm) {
+  REQUIRE(arm.jointCount() >= 1);
+  REQUIRE(arm.jointCount() <= kMaxJoints);
+  std::set<std::string> names;
+  for (const JointSpec& joint : arm.joints()) {
+    CAPTURE(joint.name);
+    CHECK(names.insert(joint.name).second);
+    CHECK(joint.X_PJ.matrix().allFinite());
+    CHECK(joint.axis.norm() == Approx(1.0).margin(1e-6));  // the model's unit-axis tolerance
+    CHECK(std::isfinite(joint.lower));
+    CHECK(std::isfinite(joint.upper));
+    CHECK(joint.lower <= joint.upper);
+    // 720° with the model's own allowance of 1e-9 rad for rounding.
+    if (joint.type == JointType::kRevolute) CHECK(joint.upper - joint.lower <= 720 * kDeg + 1e-9);
+    CHECK(joint.max_velocity > 0.0);
+    CHECK(std::isfinite(joint.max_velocity));
+    CHECK(joint.max_acceleration > 0.0);
+    CHECK(std::isfinite(joint.max_acceleration));
+  }
+  CHECK(arm.flangeInLastLink().matrix().allFinite());
+  CHECK((arm.links().empty() || static_cast<int>(arm.links().size()) == arm.jointCount() + 1));
+  for (const LinkGeometry& link : arm.links()) {
+    for (const LinkShape& shape : link.shapes) {
+      CHECK(shape.X_LS.matrix().allFinite());
+      // Rotations are built from rpy or a unit quaternion: orthonormal to rounding.
+      CHECK((shape.X_LS.linear().transpose() * shape.X_LS.linear())
+                .isApprox(Eigen::Matrix3d::Identity(), 1e-9));
+      if (shape.kind == LinkShape::Kind::kBox) CHECK((shape.box_size.array() > 0.0).all());
+      if (shape.kind != LinkShape::Kind::kBox && shape.kind != LinkShape::Kind::kMesh) {
+        CHECK(shape.radius > 0.0);
+      }
+      if (shape.kind == LinkShape::Kind::kCylinder || shape.kind == LinkShape::Kind::kCapsule) {
+        CHECK(shape.length > 0.0);
+      }
+    }
+  }
+  if (const auto& geometry = arm.orthoParallel()) {
+    CHECK(arm.jointCount() == 6);
+    CHECK(geometry->c1 >= 0.0);
+    CHECK(geometry->c2 > 0.0);
+    CHECK(geometry->c3 > 0.0);
+    CHECK(geometry->c4 >= 0.0);
+  }
+}
+
+}  // namespace
+
+TEST_CASE("Randomly damaged arm files either load or give a located error",
+          "[arm-file][errors]") {
+  const std::string original =
+      tw::test::readTextFile(test::sourcePath("samples/arms/weld_arm_1400.xml"));
+  // Fixed seed: the same damage on every run. With this one, trial 404 names
+  // a joint twice, which the loader reported without a line until it was fixed.
+  std::mt19937 random(6400);
+  int accepted = 0;
+  int rejected = 0;
+  for (int trial = 0; trial < 500; ++trial) {
+    const std::string text = tw::test::damaged(original, tw::test::kXmlDamage, random);
+    CAPTURE(trial, text);
+    const std::string path = scratchFile("damaged_arm.xml", text);
+    try {
+      checkArmGuarantees(loadArmDescription(path));
+      ++accepted;
+    } catch (const tw::InputError& error) {
+      ++rejected;
+      // Every problem of an arm file lies in that file, at a line.
+      CHECK(error.file() == path);
+      CHECK(error.line() > 0);
+    }
+  }
+  // Both outcomes occur, so the loop exercised the error paths and the loader.
+  CHECK(accepted > 0);
+  CHECK(rejected > 0);
+}
+
+TEST_CASE("Randomly damaged URDF files either load or give a located error",
+          "[arm-file][urdf][errors]") {
+  const std::string original =
+      tw::test::readTextFile(test::sourcePath("tests/kinematics/data/reference_arm.urdf"));
+  // The description that reads the damaged copy: the test's own, naming the
+  // scratch URDF by its absolute path.
+  const std::string urdf_path = std::string(TW_TEST_OUTPUT_DIR) + "/damaged.urdf";
+  std::string arm_text =
+      tw::test::readTextFile(test::sourcePath("tests/kinematics/data/reference_arm_from_urdf.xml"));
+  const std::string reference = "file=\"reference_arm.urdf\"";
+  REQUIRE(arm_text.find(reference) != std::string::npos);
+  arm_text.replace(arm_text.find(reference), reference.size(), "file=\"" + urdf_path + "\"");
+  const std::string arm_path = scratchFile("damaged_urdf_arm.xml", arm_text);
+  std::mt19937 random(2718);  // fixed seed: the same damage on every run
+  int accepted = 0;
+  int rejected = 0;
+  for (int trial = 0; trial < 500; ++trial) {
+    const std::string text = tw::test::damaged(original, tw::test::kXmlDamage, random);
+    CAPTURE(trial, text);
+    scratchFile("damaged.urdf", text);
+    try {
+      checkArmGuarantees(loadArmDescription(arm_path));
+      ++accepted;
+    } catch (const tw::InputError& error) {
+      ++rejected;
+      // A problem lies in the URDF or, when the chain no longer matches the
+      // joint list, in the description; either way at a line.
+      CHECK((error.file() == urdf_path || error.file() == arm_path));
+      CHECK(error.line() > 0);
+    }
+  }
+  // Both outcomes occur, so the loop exercised the error paths and the loader.
+  CHECK(accepted > 0);
+  CHECK(rejected > 0);
 }

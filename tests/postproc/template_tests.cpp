@@ -1,11 +1,15 @@
 #include <catch2/catch.hpp>
+#include <optional>
+#include <random>
 #include <sstream>
 #include <vector>
 
 #include "kinematics/input_error.hpp"
 #include "postproc/program_template.hpp"
+#include "postproc/safety_caution.hpp"
 #include "postproc/template_post_processor.hpp"
 #include "sample_program.hpp"
+#include "tests/test_support/text_damage.hpp"
 
 using namespace tw::postproc;
 
@@ -105,4 +109,46 @@ TEST_CASE("Rendering errors name the template line and the record", "[template]"
   }
   // Nothing reaches the stream when rendering fails.
   CHECK(out.str().empty());
+}
+
+TEST_CASE("Randomly damaged templates either parse and render or give a located error",
+          "[template][errors]") {
+  const std::string original =
+      test::readWholeFile(std::string(TW_SOURCE_DIR) + "/samples/templates/stepcard.twt");
+  const tw::planner::Program program = test::sampleProgram();
+  const std::vector<std::string> caution = safetyCaution(program);
+  REQUIRE_FALSE(caution.empty());
+  std::mt19937 random(1201);  // fixed seed: the same damage on every run
+  int parsed = 0;
+  int rejected = 0;
+  for (int trial = 0; trial < 2000; ++trial) {
+    const std::string text = tw::test::damaged(original, tw::test::kTemplateDamage, random);
+    CAPTURE(trial, text);
+    std::optional<ProgramTemplate> parsed_template;
+    try {
+      parsed_template = ProgramTemplate::parse(text, "damaged.twt");
+      ++parsed;
+    } catch (const tw::InputError& error) {
+      ++rejected;
+      CHECK(error.file() == "damaged.twt");
+      CHECK(error.line() > 0);
+      continue;
+    }
+    // A template that parses renders the program or refuses with the
+    // project's error (a section or value the program needs is missing);
+    // any other exception fails the test case.
+    std::ostringstream out;
+    try {
+      parsed_template->render(program, out);
+      // The header holds [[caution]], so every rendered program carries
+      // every line of the safety caution (program_template.hpp).
+      for (const std::string& line : caution) CHECK_THAT(out.str(), Catch::Contains(line));
+    } catch (const tw::InputError& error) {
+      CHECK(error.file() == "damaged.twt");
+      CHECK(out.str().empty());  // nothing reaches the stream when rendering fails
+    }
+  }
+  // Both outcomes occur, so the loop exercised the error paths and the parser.
+  CHECK(parsed > 0);
+  CHECK(rejected > 0);
 }
