@@ -290,7 +290,7 @@ TEST_CASE("plan and check exit with 3 for an infeasible job and write nothing",
 
 TEST_CASE("plan counts and lists the same warnings as the summary file", "[cli][plan]") {
   // The first seam at 300 mm/s, above the 250 mm/s of reduced speed
-  // (ISO 10218-1, 5.6): every move on it is a review warning.
+  // (ISO 10218-1:2011, 5.6, from memory): every move on it is a review warning.
   const std::string directory = outputDirectory("plan_warnings");
   std::string job = sampleJobText(directory);
   replaceFirst(job, "speed=\"10\"", "speed=\"300\"");

@@ -66,9 +66,9 @@ TEST_CASE("The motion bound covers the farthest point of every body") {
   CHECK(world.motionBound(joints({0.2}), joints({0.5})) >= 0.3 * reach - 1e-12);
 }
 
-TEST_CASE("A segment found valid keeps half the margin everywhere along it") {
-  // Two links over a field of posts; random segments, dense re-check.
-  WorldDescription description;
+/// Six thin posts (4 mm square) on a 0.7 m circle about the arm base, as
+/// cell bodies.
+void addPosts(WorldDescription& description) {
   for (int i = 0; i < 6; ++i) {
     const double angle = 1.047 * i;
     description.bodies.push_back(
@@ -76,6 +76,12 @@ TEST_CASE("A segment found valid keeps half the margin everywhere along it") {
          {test::boxShape(Eigen::Vector3d(0.004, 0.004, 0.5),
                          Eigen::Vector3d(0.7 * std::cos(angle), 0.7 * std::sin(angle), 0))}});
   }
+}
+
+TEST_CASE("A segment found valid keeps half the margin everywhere along it") {
+  // Two links over a field of posts; random segments, dense re-check.
+  WorldDescription description;
+  addPosts(description);
   const kinematics::LinkShape bar =
       test::boxShape(Eigen::Vector3d(0.45, 0.02, 0.02), Eigen::Vector3d(0.25, 0, 0));
   const CollisionWorld world(test::planarArm({{}, {bar}, {bar}}, 0.5), description);
@@ -112,19 +118,12 @@ TEST_CASE("A segment found valid keeps half the margin everywhere along it") {
 
 /// Three links 0.5 m apart, each a 0.6 m bar (40 mm square) from 0.05 m
 /// behind its joint; link 1 and link 3 are the only self pair (the others
-/// are neighbours along the chain). `posts` adds six thin posts on a 0.7 m
-/// circle as cell bodies.
+/// are neighbours along the chain). `posts` adds the six posts of addPosts.
 CollisionWorld threeBars(double cell_margin, double self_margin, bool posts) {
   WorldDescription description;
   description.clearance_margin = cell_margin;
   description.self_margin = self_margin;
-  for (int i = 0; posts && i < 6; ++i) {
-    const double angle = 1.047 * i;
-    description.bodies.push_back(
-        {"post" + std::to_string(i), BodyRole::kObstacle, "",
-         {test::boxShape(Eigen::Vector3d(0.004, 0.004, 0.5),
-                         Eigen::Vector3d(0.7 * std::cos(angle), 0.7 * std::sin(angle), 0))}});
-  }
+  if (posts) addPosts(description);
   const kinematics::LinkShape bar =
       test::boxShape(Eigen::Vector3d(0.6, 0.04, 0.04), Eigen::Vector3d(0.25, 0, 0));
   return CollisionWorld(test::planarArm({{}, {bar}, {bar}, {bar}}, 0.5), description);
