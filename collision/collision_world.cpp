@@ -1,15 +1,15 @@
 #include "collision/collision_world.hpp"
 
-#include <fcl/narrowphase/collision.h>
-#include <fcl/narrowphase/distance.h>
-
 #include <algorithm>
 #include <cmath>
+#include <fcl/narrowphase/collision.h>
+#include <fcl/narrowphase/distance.h>
 #include <limits>
+#include <stdexcept>
 
 #include "collision/proximity.hpp"
 #include "collision/world_model.hpp"
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/input_error.hpp"
 
 namespace tw::collision {
 namespace {
@@ -220,7 +220,7 @@ std::vector<std::pair<int, int>> CollisionWorld::baseConflicts() const {
 
 void CollisionWorld::checkWorkspace(const CollisionWorkspace& workspace) const {
   if (workspace.model_ != model_) {
-    throw InputError("collision world: the workspace was made for another collision world");
+    throw std::invalid_argument("collision world: the workspace was made for another collision world");
   }
 }
 
@@ -228,11 +228,11 @@ void CollisionWorld::poseArm(const kinematics::JointVector& q,
                              CollisionWorkspace& workspace) const {
   checkWorkspace(workspace);
   if (q.size() != model_->arm.jointCount()) {
-    throw InputError("collision world: joint vector has " + std::to_string(q.size()) +
+    throw std::invalid_argument("collision world: joint vector has " + std::to_string(q.size()) +
                      " values, the arm has " + std::to_string(model_->arm.jointCount()) +
                      " joints");
   }
-  if (!q.allFinite()) throw InputError("collision world: joint vector has a non-finite value");
+  if (!q.allFinite()) throw std::invalid_argument("collision world: joint vector has a non-finite value");
   kinematics::computeLinkPoses(model_->arm, q, workspace.poses_);
   const std::vector<Piece>& moving = model_->moving;
   for (std::size_t i = 0; i < moving.size(); ++i) {
@@ -346,10 +346,10 @@ SegmentResult CollisionWorld::checkSegment(const kinematics::JointVector& q_star
     return true;
   };
   if (q_start.size() != q_end.size() || q_start.size() != model_->arm.jointCount()) {
-    throw InputError("collision world: segment ends need one value per arm joint");
+    throw std::invalid_argument("collision world: segment ends need one value per arm joint");
   }
   if (!q_start.allFinite() || !q_end.allFinite()) {
-    throw InputError("collision world: segment end has a non-finite value");
+    throw std::invalid_argument("collision world: segment end has a non-finite value");
   }
   // Neighbouring states closer than each margin in the motion bound of its
   // pairs, so no body point passes more than a pair's margin, relative to

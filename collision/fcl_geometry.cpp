@@ -6,10 +6,11 @@
 #include <fcl/geometry/shape/cylinder.h>
 #include <fcl/geometry/shape/sphere.h>
 #include <fcl/math/bv/OBBRSS.h>
-
+#include <stdexcept>
 #include <vector>
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/input_error.hpp"
+
 
 namespace tw::collision {
 
@@ -38,7 +39,7 @@ std::shared_ptr<fcl::CollisionGeometryd> makePrimitiveGeometry(const kinematics:
   std::shared_ptr<fcl::CollisionGeometryd> geometry;
   switch (shape.kind) {
     case Kind::kMesh:
-      throw InputError(shape.mesh_path, 0, "a mesh shape is not a primitive");
+      throw std::invalid_argument(shape.mesh_path + ": " + "a mesh shape is not a primitive");
     case Kind::kBox:
       geometry = std::make_shared<fcl::Boxd>(shape.box_size);
       break;

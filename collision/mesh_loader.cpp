@@ -9,7 +9,7 @@
 #include <cmath>
 #include <fstream>
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/input_error.hpp"
 
 namespace tw::collision {
 namespace {

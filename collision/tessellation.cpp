@@ -2,14 +2,14 @@
 
 #include <algorithm>
 #include <cmath>
+#include <stdexcept>
 #include <vector>
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/angles.hpp"
 
 namespace tw::collision {
 namespace {
 
-constexpr double kPi = 3.14159265358979323846;
 
 using Kind = kinematics::LinkShape::Kind;
 
@@ -80,12 +80,12 @@ void appendSide(double radius, double length, int segments, std::vector<Eigen::V
 }  // namespace
 
 TriangleMesh tessellateShape(const kinematics::LinkShape& shape, int segments) {
-  if (segments < 3) throw InputError("tessellation needs at least 3 segments");
+  if (segments < 3) throw std::invalid_argument("tessellation needs at least 3 segments");
   const int rings = std::max(2, segments / 4);
   std::vector<Eigen::Vector2d> profile;
   switch (shape.kind) {
     case Kind::kMesh:
-      throw InputError(shape.mesh_path, 0, "a mesh shape is loaded, not tessellated");
+      throw std::invalid_argument(shape.mesh_path + ": " + "a mesh shape is loaded, not tessellated");
     case Kind::kBox:
       return boxMesh(shape.box_size);
     case Kind::kCylinder:
@@ -104,7 +104,7 @@ TriangleMesh tessellateShape(const kinematics::LinkShape& shape, int segments) {
       return revolvedMesh(profile, segments, -half - shape.radius, half + shape.radius);
     }
   }
-  throw InputError("unknown shape kind");
+  throw std::invalid_argument("unknown shape kind");
 }
 
 }  // namespace tw::collision

@@ -10,8 +10,8 @@
 #include "collision/mesh_trimming.hpp"
 #include "collision/proximity.hpp"
 #include "collision/tessellation.hpp"
+#include "kinematics/common/input_error.hpp"
 #include "kinematics/forward_kinematics.hpp"
-#include "kinematics/input_error.hpp"
 
 namespace tw::collision::detail {
 namespace {

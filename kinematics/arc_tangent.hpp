@@ -4,6 +4,8 @@
 #include <array>
 #include <cmath>
 
+#include "kinematics/common/angles.hpp"
+
 namespace tw::kinematics {
 
 /// atan2(y, x) in [−π, π] for finite arguments, within a few units in the
@@ -37,7 +39,6 @@ inline double arcTangent2(double y, double x) {
       0.7531512809621944,
       0.7853981633974483,
   };
-  constexpr double kPi = 3.14159265358979323846;
   if (std::isnan(x) || std::isnan(y)) return x + y;
   const double ax = std::abs(x);
   const double ay = std::abs(y);

@@ -3,9 +3,8 @@
 #include <map>
 #include <set>
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/xml_file.hpp"
 #include "kinematics/urdf_chain.hpp"
-#include "kinematics/xml_file.hpp"
 #include "kinematics/xml_values.hpp"
 
 namespace tw::kinematics {

@@ -3,12 +3,12 @@
 #include <cmath>
 #include <set>
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/angles.hpp"
+#include "kinematics/common/input_error.hpp"
 
 namespace tw::kinematics {
 namespace {
 
-constexpr double kPi = 3.14159265358979323846;
 // Unit axes are written by hand in files; allow the rounding of six decimals.
 constexpr double kUnitAxisTolerance = 1e-6;
 

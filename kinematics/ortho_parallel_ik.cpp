@@ -4,12 +4,12 @@
 #include <cmath>
 
 #include "kinematics/arc_tangent.hpp"
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/angles.hpp"
+#include "kinematics/common/input_error.hpp"
 
 namespace tw::kinematics {
 namespace {
 
-constexpr double kPi = 3.14159265358979323846;
 constexpr double kTwoPi = 2.0 * kPi;
 // A cosine computed a few ulps beyond ±1 at the stretched or folded arm is
 // rounding, not a miss: clamp within this, report out of reach beyond it.

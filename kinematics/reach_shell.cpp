@@ -2,7 +2,7 @@
 
 #include <cmath>
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/input_error.hpp"
 
 namespace tw::kinematics {
 

@@ -3,12 +3,12 @@
 #include <algorithm>
 #include <cmath>
 
+#include "kinematics/common/angles.hpp"
 #include "kinematics/forward_kinematics.hpp"
 
 namespace tw::kinematics {
 namespace {
 
-constexpr double kPi = 3.14159265358979323846;
 
 /// Distance of an angle from the nearest multiple of π.
 double fromAligned(double angle) {

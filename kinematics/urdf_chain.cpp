@@ -3,13 +3,13 @@
 #include <cstring>
 #include <map>
 
-#include "kinematics/input_error.hpp"
-#include "kinematics/xml_file.hpp"
+#include "kinematics/common/angles.hpp"
+#include "kinematics/common/rotations.hpp"
+#include "kinematics/common/xml_file.hpp"
 
 namespace tw::kinematics {
 namespace {
 
-constexpr double kPi = 3.14159265358979323846;
 
 Eigen::Isometry3d originOf(const XmlFile& file, const tinyxml2::XMLElement& joint) {
   Eigen::Isometry3d X = Eigen::Isometry3d::Identity();
@@ -22,13 +22,6 @@ Eigen::Isometry3d originOf(const XmlFile& file, const tinyxml2::XMLElement& join
 }
 
 }  // namespace
-
-Eigen::Matrix3d rotationFromRollPitchYaw(const Eigen::Vector3d& rpy) {
-  return (Eigen::AngleAxisd(rpy.z(), Eigen::Vector3d::UnitZ()) *
-          Eigen::AngleAxisd(rpy.y(), Eigen::Vector3d::UnitY()) *
-          Eigen::AngleAxisd(rpy.x(), Eigen::Vector3d::UnitX()))
-      .toRotationMatrix();
-}
 
 UrdfChain loadUrdfChain(const std::string& path, const std::string& base_link,
                         const std::string& tip_link) {

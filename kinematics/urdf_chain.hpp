@@ -25,8 +25,4 @@ struct UrdfChain {
 UrdfChain loadUrdfChain(const std::string& path, const std::string& base_link,
                         const std::string& tip_link);
 
-/// Rotation from roll, pitch, yaw [rad] about the fixed x, y and z axes in
-/// that order: R = Rz(yaw)·Ry(pitch)·Rx(roll), the URDF convention.
-Eigen::Matrix3d rotationFromRollPitchYaw(const Eigen::Vector3d& roll_pitch_yaw);
-
 }  // namespace tw::kinematics

@@ -4,7 +4,8 @@
 #include <fstream>
 #include <sstream>
 
-#include "kinematics/number_text.hpp"
+#include "kinematics/common/number_text.hpp"
+#include "kinematics/common/rotations.hpp"
 #include "kinematics/urdf_chain.hpp"
 
 namespace tw::kinematics {

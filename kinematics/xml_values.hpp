@@ -4,8 +4,9 @@
 #include <string>
 #include <vector>
 
+#include "kinematics/common/angles.hpp"
+#include "kinematics/common/xml_file.hpp"
 #include "kinematics/link_geometry.hpp"
-#include "kinematics/xml_file.hpp"
 
 namespace tw::kinematics {
 
@@ -14,7 +15,6 @@ namespace tw::kinematics {
 /// the element (through XmlFile::fail).
 
 inline constexpr double kMmToM = 0.001;
-inline constexpr double kPi = 3.14159265358979323846;
 inline constexpr double kDegToRad = kPi / 180.0;
 inline constexpr int kFormatVersion = 1;
 

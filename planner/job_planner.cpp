@@ -7,13 +7,13 @@
 #include <set>
 
 #include "collision/collision_workspace.hpp"
+#include "kinematics/common/input_error.hpp"
 #include "kinematics/forward_kinematics.hpp"
-#include "kinematics/input_error.hpp"
 #include "kinematics/singularity.hpp"
-#include "planner/cell_collision_world.hpp"
-#include "planner/joint_trajectory.hpp"
-#include "planner/process_move_timing.hpp"
+#include "planner/cell/cell_collision_world.hpp"
 #include "planner/program/sha256.hpp"
+#include "planner/timing/joint_trajectory.hpp"
+#include "planner/timing/process_move_timing.hpp"
 
 namespace tw::planner {
 namespace {
@@ -100,6 +100,169 @@ const Tool& toolOf(const Job& job, const std::string& name) {
   return *tool;
 }
 
+/// The phases after the seams are solved, in the order a program runs them:
+/// start at home, then for each seam a transit to its approach and the seam
+/// itself, then the transit home; finish() adds the warnings and checks the
+/// program. A failed transit is recorded in the result and ends the work.
+class ProgramAssembler {
+ public:
+  ProgramAssembler(const Job& job, const PlanOptions& options, const Tool& tool, PlanResult& result)
+      : job_(job),
+        options_(options),
+        tool_(tool),
+        result_(result),
+        world_(buildCellCollisionWorld(job.cell, tool, transitCollisionOptions(job, options))),
+        workspace_(world_),
+        transit_planner_(world_),
+        seed_(options.seed.value_or(job.transit.seed)),
+        builder_(job, options, program_) {
+    const kinematics::ArmModel& arm = job.cell.arm;
+    program_.metadata.job = job.name;
+    program_.metadata.arm = arm.name();
+    program_.metadata.generator = options.generator;
+    program_.metadata.seed = seed_;
+    program_.metadata.inputs = inputHashes(job);
+    program_.metadata.joints = programJoints(arm);
+    transit_limits_.velocity_fraction = job.transit.joint_speed_fraction;
+  }
+
+  /// Where the arm is assumed to start; no time passes.
+  void startAtHome() {
+    addJointMove(job_.cell.home, 0.0);
+    position_ = job_.cell.home;
+    position_name_ = "home";
+  }
+
+  /// Plans and times the transit from the current position to `goal`; false
+  /// (and the failure recorded) when no transit was found. `index` numbers
+  /// the transits of the job.
+  bool transitTo(const JointVector& goal, const std::string& goal_name, int index) {
+    TransitRequest request;
+    request.start = position_;
+    request.goals = {goal};
+    request.planner = options_.transit_planner;
+    request.time_limit = job_.transit.time_limit;
+    // One seed per transit, derived from the job's, so that a change to one
+    // transit does not reshuffle the others.
+    request.seed = seed_ + static_cast<unsigned>(index);
+    const TransitResult transit = transit_planner_.plan(request);
+    if (!transit.solved()) {
+      result_.transit_failures.push_back({position_name_, goal_name, transit});
+      return false;
+    }
+    if (options_.on_step) options_.on_step("transit " + position_name_ + " to " + goal_name);
+    const JointTrajectory trajectory(job_.cell.arm, transit.path, transit_limits_);
+    for (const JointTrajectory::Segment& segment : trajectory.segments()) {
+      addJointMove(segment.q_end, segment.profile.duration());
+    }
+    position_ = goal;
+    position_name_ = goal_name;
+    return true;
+  }
+
+  /// The approach, the seam's waypoints with its process events, and the
+  /// retract, as linear moves from the transit's end.
+  void runSeam(const SolvedSeam& seam, const JobTask& task) {
+    const std::string named_set =
+        std::visit([](const auto& spec) { return spec.parameter_set; }, task);
+    const std::string parameter_set = named_set.empty() ? toString(seam.process) : named_set;
+    const std::string branch = seam.branch.toString();
+    const SolvedPose* previous = &seam.approach;
+    bool process_on = false;
+    for (std::size_t i = 0; i < seam.waypoints.size(); ++i) {
+      const SolvedPose& pose = seam.waypoints[i];
+      const double speed = i == 0 ? options_.approach_speed : pose.speed;
+      addLinearMove(seam, branch, *previous, pose, speed, static_cast<int>(i));
+      previous = &pose;
+      if (pose.process_on != process_on) {
+        builder_.addEvent(pose.process_on ? ProcessEventKind::kStart : ProcessEventKind::kStop,
+                          parameter_set, seam.name);
+        process_on = pose.process_on;
+      }
+    }
+    if (process_on) builder_.addEvent(ProcessEventKind::kStop, parameter_set, seam.name);
+    addLinearMove(seam, branch, *previous, seam.retract, options_.approach_speed,
+                  static_cast<int>(seam.waypoints.size()));
+    position_ = seam.retract.q;
+    position_name_ = seam.name;
+    for (std::size_t i = 0; i < seam.waypoints.size(); ++i) {
+      if (seam.waypoints[i].wrist_warning) {
+        program_.warnings.push_back("seam " + seam.name + " waypoint " + std::to_string(i) +
+                                    ": axis 5 within the wrist warning margin");
+      }
+    }
+  }
+
+  /// The warnings of the whole job, then the consistency check.
+  Program finish() {
+    for (const SpeedLimit& limit : result_.speed_limits) {
+      program_.warnings.push_back("seam " + limit.seam + ", move to waypoint " +
+                                  std::to_string(limit.waypoint) + ": " + limit.lowered.reason);
+    }
+    for (const std::string& note : world_.notes()) program_.warnings.push_back(note);
+    checkProgram(program_, job_.source);
+    return std::move(program_);
+  }
+
+ private:
+  /// The job's clearance is about the cell; self pairs keep the base margin
+  /// of options.collision.
+  static CellCollisionOptions transitCollisionOptions(const Job& job, const PlanOptions& options) {
+    CellCollisionOptions transit_collision = options.collision;
+    transit_collision.clearance_margin = job.transit.clearance;
+    return transit_collision;
+  }
+
+  void addJointMove(const JointVector& q, double duration) {
+    MotionRecord record;
+    record.kind = MotionKind::kJointMove;
+    record.q = q;
+    record.X_RT = builder_.worldTcp(q, tool_);
+    record.tool = tool_.name;
+    record.frame = kWorldFrame;
+    record.speed = {SpeedKind::kJointSpeedFraction, job_.transit.joint_speed_fraction};
+    record.duration = duration;
+    builder_.addMotion(record, world_, workspace_);
+  }
+
+  void addLinearMove(const SolvedSeam& seam, const std::string& branch, const SolvedPose& from,
+                     const SolvedPose& to, double speed, int waypoint) {
+    ProcessSpeed programmed;
+    programmed.tcp_speed = speed;
+    programmed.orientation_speed = options_.orientation_speed;
+    const ProcessMoveTiming timing =
+        timeProcessMove(job_.cell.arm, {{from.q, from.X_XT}, {to.q, to.X_XT}}, programmed);
+    MotionRecord record;
+    record.kind = MotionKind::kLinearMove;
+    record.q = to.q;
+    record.X_RT = to.X_XT;
+    record.tool = tool_.name;
+    record.frame = seam.frame;
+    record.speed = {SpeedKind::kTcpSpeed, speed};
+    record.duration = timing.duration;
+    record.seam = seam.name;
+    record.branch = branch;
+    for (const LoweredSpeed& lowered : timing.lowered) {
+      result_.speed_limits.push_back({seam.name, waypoint, lowered});
+    }
+    builder_.addMotion(record, world_, workspace_);
+  }
+
+  const Job& job_;
+  const PlanOptions& options_;
+  const Tool& tool_;
+  PlanResult& result_;
+  const collision::CollisionWorld world_;
+  collision::CollisionWorkspace workspace_;
+  const TransitPlanner transit_planner_;
+  const unsigned seed_;
+  Program program_;
+  ProgramBuilder builder_;
+  JointTimingLimits transit_limits_;
+  JointVector position_;
+  std::string position_name_;
+};
+
 }  // namespace
 
 void requireOneTool(const Job& job) {
@@ -132,135 +295,14 @@ PlanResult planJob(const Job& job, const PlanOptions& options) {
 
   std::vector<const SolvedSeam*> seams;
   for (const SeamOutcome& outcome : result.seams.tasks) seams.push_back(&std::get<SolvedSeam>(outcome));
-  const std::string& tool_name = seams.front()->tool;
-  const Tool& tool = toolOf(job, tool_name);
-  const kinematics::ArmModel& arm = job.cell.arm;
-
-  // The job's clearance is about the cell; self pairs keep the base margin
-  // of options.collision.
-  CellCollisionOptions transit_collision = options.collision;
-  transit_collision.clearance_margin = job.transit.clearance;
-  const collision::CollisionWorld world = buildCellCollisionWorld(job.cell, tool, transit_collision);
-  collision::CollisionWorkspace workspace(world);
-  const TransitPlanner transit_planner(world);
-  const unsigned seed = options.seed.value_or(job.transit.seed);
-
-  Program program;
-  program.metadata.job = job.name;
-  program.metadata.arm = arm.name();
-  program.metadata.generator = options.generator;
-  program.metadata.seed = seed;
-  program.metadata.inputs = inputHashes(job);
-  program.metadata.joints = programJoints(arm);
-  ProgramBuilder builder(job, options, program);
-
-  JointTimingLimits transit_limits;
-  transit_limits.velocity_fraction = job.transit.joint_speed_fraction;
-  const auto joint_move = [&](const JointVector& q, double duration) {
-    MotionRecord record;
-    record.kind = MotionKind::kJointMove;
-    record.q = q;
-    record.X_RT = builder.worldTcp(q, tool);
-    record.tool = tool.name;
-    record.frame = kWorldFrame;
-    record.speed = {SpeedKind::kJointSpeedFraction, job.transit.joint_speed_fraction};
-    record.duration = duration;
-    builder.addMotion(record, world, workspace);
-  };
-  // Where the arm is assumed to start; no time passes.
-  joint_move(job.cell.home, 0.0);
-
-  JointVector position = job.cell.home;
-  std::string position_name = "home";
-  const auto transit_to = [&](const JointVector& goal, const std::string& goal_name,
-                              int index) -> bool {
-    TransitRequest request;
-    request.start = position;
-    request.goals = {goal};
-    request.planner = options.transit_planner;
-    request.time_limit = job.transit.time_limit;
-    // One seed per transit, derived from the job's, so that a change to one
-    // transit does not reshuffle the others.
-    request.seed = seed + static_cast<unsigned>(index);
-    const TransitResult transit = transit_planner.plan(request);
-    if (!transit.solved()) {
-      result.transit_failures.push_back({position_name, goal_name, transit});
-      return false;
-    }
-    if (options.on_step) options.on_step("transit " + position_name + " to " + goal_name);
-    const JointTrajectory trajectory(arm, transit.path, transit_limits);
-    for (const JointTrajectory::Segment& segment : trajectory.segments()) {
-      joint_move(segment.q_end, segment.profile.duration());
-    }
-    position = goal;
-    position_name = goal_name;
-    return true;
-  };
-
-  bool complete = true;
-  for (std::size_t s = 0; s < seams.size() && complete; ++s) {
-    const SolvedSeam& seam = *seams[s];
-    complete = transit_to(seam.approach.q, seam.name, static_cast<int>(s));
-    if (!complete) break;
-    const std::string words = seam.branch.toString();
-    const std::string named_set =
-        std::visit([](const auto& spec) { return spec.parameter_set; }, job.tasks[s]);
-    const std::string parameter_set = named_set.empty() ? toString(seam.process) : named_set;
-    const SolvedPose* previous = &seam.approach;
-    bool process_on = false;
-    const auto linear_move = [&](const SolvedPose& target, double speed, int waypoint) {
-      ProcessSpeed programmed;
-      programmed.tcp_speed = speed;
-      programmed.orientation_speed = options.orientation_speed;
-      const ProcessMoveTiming timing =
-          timeProcessMove(arm, {{previous->q, previous->X_XT}, {target.q, target.X_XT}}, programmed);
-      MotionRecord record;
-      record.kind = MotionKind::kLinearMove;
-      record.q = target.q;
-      record.X_RT = target.X_XT;
-      record.tool = tool.name;
-      record.frame = seam.frame;
-      record.speed = {SpeedKind::kTcpSpeed, speed};
-      record.duration = timing.duration;
-      record.seam = seam.name;
-      record.branch = words;
-      for (const LoweredSpeed& lowered : timing.lowered) {
-        result.speed_limits.push_back({seam.name, waypoint, lowered});
-      }
-      builder.addMotion(record, world, workspace);
-      previous = &target;
-    };
-    for (std::size_t i = 0; i < seam.waypoints.size(); ++i) {
-      const SolvedPose& pose = seam.waypoints[i];
-      const bool first = i == 0;
-      linear_move(pose, first ? options.approach_speed : pose.speed, static_cast<int>(i));
-      if (pose.process_on != process_on) {
-        builder.addEvent(pose.process_on ? ProcessEventKind::kStart : ProcessEventKind::kStop,
-                         parameter_set, seam.name);
-        process_on = pose.process_on;
-      }
-    }
-    if (process_on) builder.addEvent(ProcessEventKind::kStop, parameter_set, seam.name);
-    linear_move(seam.retract, options.approach_speed, static_cast<int>(seam.waypoints.size()));
-    position = seam.retract.q;
-    position_name = seam.name;
-    for (std::size_t i = 0; i < seam.waypoints.size(); ++i) {
-      if (seam.waypoints[i].wrist_warning) {
-        program.warnings.push_back("seam " + seam.name + " waypoint " + std::to_string(i) +
-                                   ": axis 5 within the wrist warning margin");
-      }
-    }
+  ProgramAssembler assembler(job, options, toolOf(job, seams.front()->tool), result);
+  assembler.startAtHome();
+  for (std::size_t s = 0; s < seams.size(); ++s) {
+    if (!assembler.transitTo(seams[s]->approach.q, seams[s]->name, static_cast<int>(s))) return result;
+    assembler.runSeam(*seams[s], job.tasks[s]);
   }
-  if (complete) complete = transit_to(job.cell.home, "home", static_cast<int>(seams.size()));
-  if (!complete) return result;
-
-  for (const SpeedLimit& limit : result.speed_limits) {
-    program.warnings.push_back("seam " + limit.seam + ", move to waypoint " +
-                               std::to_string(limit.waypoint) + ": " + limit.lowered.reason);
-  }
-  for (const std::string& note : world.notes()) program.warnings.push_back(note);
-  checkProgram(program, job.source);
-  result.program = std::move(program);
+  if (!assembler.transitTo(job.cell.home, "home", static_cast<int>(seams.size()))) return result;
+  result.program = assembler.finish();
   return result;
 }
 

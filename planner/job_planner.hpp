@@ -5,12 +5,12 @@
 #include <string>
 #include <vector>
 
-#include "planner/job.hpp"
-#include "planner/job_solver.hpp"
-#include "planner/process_move_timing.hpp"
+#include "planner/job/job.hpp"
 #include "planner/program/program.hpp"
+#include "planner/seam/job_solver.hpp"
 #include "planner/step_callback.hpp"
-#include "planner/transit_planner.hpp"
+#include "planner/timing/process_move_timing.hpp"
+#include "planner/transit/transit_planner.hpp"
 
 namespace tw::planner {
 

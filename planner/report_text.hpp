@@ -3,15 +3,13 @@
 #include <string>
 
 #include "collision/collision_world.hpp"
+#include "kinematics/common/number_text.hpp"
 #include "kinematics/joint.hpp"
 
 namespace tw::planner {
 
-/// Locale-independent text of numbers for the reasons in planning and timing
-/// reports (C locale, never "-0").
-
-/// `value` with `decimals` digits after the point.
-std::string formatDecimal(double value, int decimals);
+/// Text for the reasons in planning and timing reports; numbers through
+/// tw::formatFixed and tw::formatSignificant (C locale, never "-0").
 
 /// "(q0, q1, ...)" with every value to 17 significant digits [rad] or [m], so
 /// that a reported configuration can be pasted into a regression test.

@@ -6,7 +6,7 @@
 #include <fstream>
 #include <system_error>
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/input_error.hpp"
 
 namespace tw::postproc {
 namespace {

@@ -1,11 +1,11 @@
 #include <memory>
 
-#include "postproc/html_report_post_processor.hpp"
-#include "postproc/joint_table_post_processor.hpp"
-#include "postproc/motion_text_post_processor.hpp"
+#include "postproc/motion_text/motion_text_post_processor.hpp"
 #include "postproc/post_processor_registry.hpp"
-#include "postproc/summary_post_processor.hpp"
-#include "postproc/template_post_processor.hpp"
+#include "postproc/report/html_report_post_processor.hpp"
+#include "postproc/tables/joint_table_post_processor.hpp"
+#include "postproc/tables/summary_post_processor.hpp"
+#include "postproc/template/template_post_processor.hpp"
 
 namespace tw::postproc {
 

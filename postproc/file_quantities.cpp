@@ -2,7 +2,8 @@
 
 #include <cmath>
 
-#include "postproc/fixed_number.hpp"
+#include "kinematics/common/angles.hpp"
+#include "kinematics/common/number_text.hpp"
 
 namespace tw::postproc {
 
@@ -20,7 +21,7 @@ FileQuantities fileQuantities(const planner::FileUnits& units) {
   const std::string length_unit = toString(units.length);
   FileQuantities quantities;
   quantities.length = {mm ? 1000.0 : 1.0, length_unit, mm ? 3 : 6};
-  quantities.angle = {deg ? 180.0 / M_PI : 1.0, toString(units.angle), deg ? 4 : 6};
+  quantities.angle = {deg ? 180.0 / kPi : 1.0, toString(units.angle), deg ? 4 : 6};
   quantities.time = {1.0, "s", 4};
   quantities.speed = {quantities.length.scale, length_unit + "/s", mm ? 3 : 6};
   quantities.quaternion = {1.0, "", 9};

@@ -2,13 +2,6 @@
 
 namespace tw::postproc {
 
-Eigen::Quaterniond canonicalQuaternion(const Eigen::Isometry3d& X_RT) {
-  Eigen::Quaterniond quaternion(X_RT.linear());
-  quaternion.normalize();
-  if (quaternion.w() < 0.0) quaternion.coeffs() = -quaternion.coeffs();
-  return quaternion;
-}
-
 PoseText poseText(const Eigen::Isometry3d& X_RT, const FileQuantities& quantities) {
   const Eigen::Vector3d p_RT = X_RT.translation();
   const Eigen::Quaterniond quaternion = canonicalQuaternion(X_RT);

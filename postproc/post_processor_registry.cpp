@@ -1,6 +1,6 @@
 #include "postproc/post_processor_registry.hpp"
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/input_error.hpp"
 
 namespace tw::postproc {
 

@@ -2,14 +2,15 @@
 
 #include <string>
 
-#include "postproc/report_cell.hpp"
+#include "kinematics/common/angles.hpp"
+#include "postproc/report/report_cell.hpp"
 
 namespace tw::postproc {
 
 /// Choices a caller may make when writing; every field has a default that
 /// suits a first review. Set fields by name.
 struct WriteOptions {
-  static constexpr double kDegree = 3.14159265358979323846 / 180.0;  ///< [rad]
+  static constexpr double kDegree = kPi / 180.0;  ///< [rad]
 
   /// Name of the output for error messages ("" when writing to a stream).
   std::string output_name;

@@ -6,7 +6,7 @@ set -euo pipefail
 packages=(
   build-essential cmake pkg-config time
   libeigen3-dev libtinyxml2-dev libcli11-dev nlohmann-json3-dev
-  libfcl-dev libassimp-dev
+  libfcl-dev libassimp-dev nettle-dev
   libompl-dev libboost-serialization-dev libboost-filesystem-dev libboost-system-dev
   catch2 libbenchmark-dev liborocos-kdl-dev
 )

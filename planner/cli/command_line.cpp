@@ -2,7 +2,7 @@
 
 #include <exception>
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/input_error.hpp"
 #include "planner/cli/exit_codes.hpp"
 #include "planner/cli/kinematics_commands.hpp"
 #include "planner/cli/motion_file_commands.hpp"

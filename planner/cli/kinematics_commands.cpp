@@ -6,8 +6,10 @@
 #include <vector>
 
 #include "kinematics/arm_loader.hpp"
+#include "kinematics/common/angles.hpp"
+#include "kinematics/common/input_error.hpp"
+#include "kinematics/common/rotations.hpp"
 #include "kinematics/forward_kinematics.hpp"
-#include "kinematics/input_error.hpp"
 #include "kinematics/ortho_parallel_ik.hpp"
 #include "kinematics/reach_shell.hpp"
 #include "kinematics/singularity.hpp"
@@ -19,7 +21,6 @@ namespace {
 
 using namespace tw::kinematics;
 
-constexpr double kPi = 3.14159265358979323846;
 constexpr double kDeg = kPi / 180.0;
 
 struct ReachArguments {

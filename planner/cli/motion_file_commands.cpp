@@ -11,16 +11,16 @@
 #include <variant>
 #include <vector>
 
-#include "kinematics/input_error.hpp"
-#include "kinematics/number_text.hpp"
+#include "kinematics/common/angles.hpp"
+#include "kinematics/common/input_error.hpp"
+#include "kinematics/common/number_text.hpp"
 #include "planner/cli/exit_codes.hpp"
-#include "planner/cli/motion_comparison.hpp"
 #include "postproc/atomic_file.hpp"
+#include "postproc/compare/motion_comparison.hpp"
 #include "postproc/file_quantities.hpp"
-#include "postproc/fixed_number.hpp"
-#include "postproc/joint_table_post_processor.hpp"
-#include "postproc/motion_text_reader.hpp"
+#include "postproc/motion_text/motion_text_reader.hpp"
 #include "postproc/pose_text.hpp"
+#include "postproc/tables/joint_table_post_processor.hpp"
 
 namespace tw::cli {
 namespace {
@@ -30,9 +30,14 @@ using planner::MotionRecord;
 using planner::ProcessEvent;
 using planner::Program;
 using postproc::FileQuantities;
+using postproc::ComparisonTolerances;
+using postproc::compareMotionPrograms;
+using postproc::LargestChange;
+using postproc::MotionComparison;
 using postproc::QuantityFormat;
+using postproc::RecordChange;
 
-constexpr double kDegree = 3.14159265358979323846 / 180.0;
+constexpr double kDegree = kPi / 180.0;
 
 // ---------------------------------------------------------------- compare
 
@@ -49,7 +54,7 @@ struct CompareArguments {
 
 /// The value as the file formats print it, as a JSON number.
 double jsonNumber(const QuantityFormat& format, double si_value) {
-  return *kinematics::parseNumber(format.format(si_value));
+  return *parseNumber(format.format(si_value));
 }
 
 /// Where a largest change occurs, or "unchanged" when nothing changed.
@@ -244,7 +249,7 @@ class TablePrinter {
     std::printf(
         "! marks a joint within %s %s (%s for linear joints) of a limit, or a singularity "
         "margin or clearance below the review thresholds (%s %s, %s %s)\n",
-        postproc::formatFixed(arguments_.margin_warning, 3).c_str(), q_.angle.unit.c_str(),
+        formatFixed(arguments_.margin_warning, 3).c_str(), q_.angle.unit.c_str(),
         q_.length.unit.c_str(), q_.angle.format(singularityWarning()).c_str(),
         q_.angle.unit.c_str(), q_.length.format(clearanceWarning()).c_str(),
         q_.length.unit.c_str());

@@ -11,19 +11,20 @@
 #include <set>
 #include <string>
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/angles.hpp"
+#include "kinematics/common/input_error.hpp"
 #include "planner/cli/exit_codes.hpp"
 #include "planner/cli/progress_bar.hpp"
-#include "planner/cli/report_geometry.hpp"
-#include "planner/job_loader.hpp"
+#include "planner/job/job_loader.hpp"
 #include "planner/job_planner.hpp"
 #include "planner/report_text.hpp"
 #include "postproc/atomic_file.hpp"
-#include "postproc/motion_text_reader.hpp"
+#include "postproc/motion_text/motion_text_reader.hpp"
 #include "postproc/post_processor_registry.hpp"
-#include "postproc/program_template.hpp"
+#include "postproc/report/report_geometry.hpp"
 #include "postproc/review_warnings.hpp"
 #include "postproc/safety_caution.hpp"
+#include "postproc/template/program_template.hpp"
 
 namespace tw::cli {
 namespace {
@@ -87,7 +88,7 @@ std::vector<std::string> branchChanges(const std::map<std::string, EarlierSeam>&
 }
 
 
-std::string millimetres(double metres) { return planner::formatDecimal(metres * 1000.0, 1); }
+std::string millimetres(double metres) { return formatFixed(metres * 1000.0, 1); }
 
 /// Prints why the job cannot be run: every infeasible seam's report and
 /// every failed transit.
@@ -142,7 +143,7 @@ void printSummary(const planner::Program& program, const std::vector<std::string
   std::printf("%-20s %6s %9s %14s  %s\n", "seam", "moves", "time [s]", "clearance [mm]", "branch");
   for (const auto& [name, line] : seams) {
     std::printf("%-20s %6d %9s %14s  %s\n", name.c_str(), line.moves,
-                planner::formatDecimal(line.end - line.start, 2).c_str(),
+                formatFixed(line.end - line.start, 2).c_str(),
                 std::isfinite(line.clearance) ? millimetres(line.clearance).c_str() : "-",
                 line.branch.c_str());
   }
@@ -152,7 +153,7 @@ void printSummary(const planner::Program& program, const std::vector<std::string
   const std::vector<postproc::ReviewWarning> warnings =
       postproc::reviewWarnings(program, postproc::WriteOptions{});
   std::printf("cycle time %s s (estimate), minimum clearance to the cell %s mm, %zu warning(s)\n",
-              planner::formatDecimal(planner::cycleTime(program), 2).c_str(),
+              formatFixed(planner::cycleTime(program), 2).c_str(),
               std::isfinite(min_clearance) ? millimetres(min_clearance).c_str() : "-",
               warnings.size());
   // Counts by kind first: a fast paint job can have a warning on every
@@ -223,7 +224,7 @@ std::vector<std::string> writeOutputs(const planner::Job& job, const planner::Pr
                                       const std::string& directory_override,
                                       const std::function<void(const std::string&)>& on_written) {
   postproc::WriteOptions options;
-  options.report_cell = reportCellOf(job.cell, program);
+  options.report_cell = postproc::reportCellOf(job.cell, program);
   std::vector<std::string> written;
   for (const planner::OutputRequest& request : job.outputs) {
     // The loader resolved each path against the job's output directory; an
@@ -322,7 +323,7 @@ int runCheck(const PlanArguments& arguments) {
       if (const planner::SolvedSeam* seam = std::get_if<planner::SolvedSeam>(&outcome)) {
         std::printf("%-20s reachable: %zu waypoints, %s, axis 5 at least %s deg from 0\n",
                     seam->name.c_str(), seam->waypoints.size(), seam->branch.toString().c_str(),
-                    planner::formatDecimal(seam->min_wrist_angle * 180.0 / 3.14159265358979323846, 1).c_str());
+                    formatFixed(seam->min_wrist_angle * 180.0 / kPi, 1).c_str());
       } else {
         std::printf("%s\n", std::get<planner::SeamReport>(outcome).text().c_str());
       }

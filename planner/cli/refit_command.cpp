@@ -6,24 +6,24 @@
 #include <sstream>
 #include <string>
 
-#include "kinematics/input_error.hpp"
-#include "planner/cell.hpp"
-#include "planner/cell_loader.hpp"
-#include "planner/cli/cell_frame_edit.hpp"
+#include "kinematics/common/angles.hpp"
+#include "kinematics/common/input_error.hpp"
+#include "kinematics/common/number_text.hpp"
+#include "kinematics/common/rotations.hpp"
+#include "planner/cell/cell.hpp"
+#include "planner/cell/cell_loader.hpp"
 #include "planner/cli/exit_codes.hpp"
-#include "planner/cli/roll_pitch_yaw.hpp"
-#include "planner/reference_points_csv.hpp"
-#include "planner/rigid_fit.hpp"
+#include "planner/refit/cell_frame_edit.hpp"
+#include "planner/refit/reference_points_csv.hpp"
+#include "planner/refit/rigid_fit.hpp"
 #include "postproc/atomic_file.hpp"
-#include "postproc/fixed_number.hpp"
-#include "postproc/pose_text.hpp"
 #include "postproc/safety_caution.hpp"
 
 namespace tw::cli {
 namespace {
 
 constexpr double kMToMm = 1000.0;
-constexpr double kRadToDeg = 180.0 / 3.14159265358979323846;
+constexpr double kRadToDeg = 180.0 / kPi;
 // Below 4 points the residuals check only the distances between the points.
 constexpr std::size_t kPointsForResidualCheck = 4;
 
@@ -38,16 +38,16 @@ struct RefitArguments {
   bool write_cell = false;
 };
 
-std::string mm(double metres) { return postproc::formatFixed(metres * kMToMm, 3); }
-std::string deg(double radians) { return postproc::formatFixed(radians * kRadToDeg, 4); }
+std::string mm(double metres) { return formatFixed(metres * kMToMm, 3); }
+std::string deg(double radians) { return formatFixed(radians * kRadToDeg, 4); }
 
 std::string poseLine(const Eigen::Isometry3d& X_PF) {
   const Eigen::Vector3d& p = X_PF.translation();
-  const Eigen::Quaterniond q = postproc::canonicalQuaternion(X_PF);
+  const Eigen::Quaterniond q = canonicalQuaternion(X_PF);
   const Eigen::Vector3d rpy = rollPitchYaw(X_PF.linear());
   return "xyz " + mm(p.x()) + " " + mm(p.y()) + " " + mm(p.z()) + " mm, quaternion w x y z " +
-         postproc::formatFixed(q.w(), 9) + " " + postproc::formatFixed(q.x(), 9) + " " +
-         postproc::formatFixed(q.y(), 9) + " " + postproc::formatFixed(q.z(), 9) +
+         formatFixed(q.w(), 9) + " " + formatFixed(q.x(), 9) + " " +
+         formatFixed(q.y(), 9) + " " + formatFixed(q.z(), 9) +
          ", roll/pitch/yaw " + deg(rpy.x()) + " " + deg(rpy.y()) + " " + deg(rpy.z()) + " deg";
 }
 
@@ -138,7 +138,7 @@ int runRefit(const RefitArguments& arguments) {
       "(ISO 10218-1: at most %s mm/s at the TCP); the integrator's risk assessment and "
       "local codes take precedence.\n",
       arguments.frame.c_str(),
-      postproc::formatFixed(postproc::kReducedSpeedLimit * kMToMm, 0).c_str());
+      formatFixed(postproc::kReducedSpeedLimit * kMToMm, 0).c_str());
 
   if (!arguments.write_cell) return kExitOk;
   if (above > 0) {
@@ -146,7 +146,7 @@ int runRefit(const RefitArguments& arguments) {
     return kExitInfeasible;
   }
   const std::string text =
-      cellTextWithFramePose(readText(cell.source), cell.source, arguments.frame, X_PF_new);
+      planner::cellTextWithFramePose(readText(cell.source), cell.source, arguments.frame, X_PF_new);
   postproc::writeFileAtomically(cell.source, [&](std::ostream& out) { out << text; });
   std::printf("wrote the new pose of frame '%s' into %s\n", arguments.frame.c_str(),
               cell.source.c_str());

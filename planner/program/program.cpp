@@ -5,7 +5,7 @@
 #include <set>
 
 #include "kinematics/arm_model.hpp"
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/input_error.hpp"
 
 namespace tw::planner {
 namespace {

@@ -5,11 +5,13 @@
 #include <string>
 #include <string_view>
 
+#include <nettle/sha2.h>
+
 namespace tw::planner {
 
-/// SHA-256 as specified in FIPS 180-4 §6.2, fed in pieces. Used for the
-/// integrity line of motion text files and for the hashes of input files.
-/// Not thread safe; one object per message.
+/// SHA-256 (FIPS 180-4 §6.2) through Debian's nettle library, fed in pieces.
+/// Used for the integrity line of motion text files and for the hashes of
+/// input files. Not thread safe; one object per message.
 class Sha256 {
  public:
   Sha256();
@@ -18,12 +20,7 @@ class Sha256 {
   std::array<std::uint8_t, 32> finish();
 
  private:
-  void compress(const std::uint8_t* block);
-
-  std::array<std::uint32_t, 8> state_;
-  std::array<std::uint8_t, 64> buffer_{};
-  std::size_t buffered_ = 0;
-  std::uint64_t total_bytes_ = 0;
+  sha256_ctx context_;
 };
 
 /// SHA-256 of `bytes` as 64 lower-case hex digits.

@@ -9,6 +9,7 @@
 #include <random>
 
 #include "kinematics/arm_loader.hpp"
+#include "kinematics/common/angles.hpp"
 #include "kinematics/forward_kinematics.hpp"
 #include "kinematics/ortho_parallel_ik.hpp"
 #include "tests/kinematics/kdl_chain.hpp"
@@ -18,7 +19,6 @@ using namespace tw::kinematics;
 namespace {
 
 constexpr int kTargets = 1024;
-constexpr double kPi = 3.14159265358979323846;
 
 double unitDraw(std::mt19937_64& generator) {
   return static_cast<double>(generator() >> 11) * 0x1.0p-53;
@@ -36,7 +36,7 @@ struct Fixture {
       JointVector seed(6);
       for (int j = 0; j < 6; ++j) {
         q[j] = arm.lowerLimits()[j] + unitDraw(generator) * (arm.upperLimits()[j] - arm.lowerLimits()[j]);
-        seed[j] = -kPi + 2 * kPi * unitDraw(generator);
+        seed[j] = -tw::kPi + 2 * tw::kPi * unitDraw(generator);
       }
       targets.push_back(flangePose(arm, q));
       seeds.push_back(seed);

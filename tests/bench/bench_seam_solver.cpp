@@ -7,14 +7,14 @@
 
 #include <chrono>
 
+#include "kinematics/common/angles.hpp"
 #include "kinematics/ortho_parallel_ik.hpp"
-#include "planner/cell_loader.hpp"
-#include "planner/job_solver.hpp"
+#include "planner/cell/cell_loader.hpp"
+#include "planner/seam/job_solver.hpp"
 
 namespace {
 
 using namespace tw::planner;
-constexpr double kPi = 3.14159265358979323846;
 
 struct Demo {
   Cell cell = loadCell(std::string(TW_SOURCE_DIR) + "/samples/cells/bracket_weld_cell.xml");
@@ -29,11 +29,11 @@ struct Demo {
     path.name = "bench-seam";
     path.frame = "table-top";
     path.tool = "torch";
-    path.spin = {-kPi, kPi};
+    path.spin = {-tw::kPi, tw::kPi};
     for (int i = 0; i < 500; ++i) {
       Waypoint waypoint;
       waypoint.X_XT = Eigen::Translation3d(-0.300, -0.250 + 0.001 * i, 0.100) *
-                      Eigen::AngleAxisd(kPi, Eigen::Vector3d::UnitX());
+                      Eigen::AngleAxisd(tw::kPi, Eigen::Vector3d::UnitX());
       waypoint.speed = 0.010;
       path.waypoints.push_back(waypoint);
     }

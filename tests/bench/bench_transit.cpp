@@ -21,7 +21,7 @@
 #include <ctime>
 #include <vector>
 
-#include "planner/transit_planner.hpp"
+#include "planner/transit/transit_planner.hpp"
 #include "tests/planner/transit_test_world.hpp"
 
 namespace tw::planner {

@@ -4,7 +4,7 @@
 #include <stdexcept>
 #include <string>
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/input_error.hpp"
 #include "planner/cli/command_line.hpp"
 #include "planner/cli/exit_codes.hpp"
 #include "planner/cli/progress_bar.hpp"

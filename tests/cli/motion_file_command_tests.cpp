@@ -5,13 +5,13 @@
 #include <nlohmann/json.hpp>
 #include <sstream>
 
-#include "cli_test_support.hpp"
 #include "postproc/atomic_file.hpp"
-#include "postproc/joint_table_post_processor.hpp"
-#include "postproc/motion_text_post_processor.hpp"
-#include "postproc/motion_text_reader.hpp"
+#include "postproc/motion_text/motion_text_post_processor.hpp"
+#include "postproc/motion_text/motion_text_reader.hpp"
 #include "postproc/post_processor_registry.hpp"
-#include "two_programs.hpp"
+#include "postproc/tables/joint_table_post_processor.hpp"
+#include "tests/cli/cli_test_support.hpp"
+#include "tests/postproc/two_programs.hpp"
 
 namespace tw::cli {
 namespace {
@@ -48,8 +48,8 @@ TEST_CASE("Every command and the tool itself answer --help", "[cli][help]") {
 }
 
 TEST_CASE("compare reports the planted changes, as text and as JSON", "[cli][compare]") {
-  const std::string a = writeMotionText("compare_a.twm", test::programA());
-  const std::string b = writeMotionText("compare_b.twm", test::programB());
+  const std::string a = writeMotionText("compare_a.twm", postproc::test::programA());
+  const std::string b = writeMotionText("compare_b.twm", postproc::test::programB());
   SECTION("text") {
     const test::ToolRun run = runTool("compare " + quoted(a) + " " + quoted(b) + " --records");
     CAPTURE(run.output);
@@ -92,7 +92,7 @@ TEST_CASE("compare reports the planted changes, as text and as JSON", "[cli][com
 
 TEST_CASE("compare and table refuse a damaged file with its file and line",
           "[cli][compare][table]") {
-  const std::string a = writeMotionText("damaged_a.twm", test::programA());
+  const std::string a = writeMotionText("damaged_a.twm", postproc::test::programA());
   std::string text = test::readText(a);
   text.replace(text.find("joints=10.0000"), 14, "joints=11.0000");  // an edit the hash catches
   const std::string damaged = test::writeTestFile("damaged_b.twm", text);
@@ -113,7 +113,7 @@ TEST_CASE("compare and table refuse a damaged file with its file and line",
 
 TEST_CASE("table prints one row per record, marks margins, colours only when asked",
           "[cli][table]") {
-  const std::string a = writeMotionText("table_a.twm", test::programA());
+  const std::string a = writeMotionText("table_a.twm", postproc::test::programA());
   const test::ToolRun plain = runTool("table " + quoted(a));
   CAPTURE(plain.output);
   REQUIRE(plain.exit_code == 0);
@@ -142,7 +142,7 @@ TEST_CASE("table prints one row per record, marks margins, colours only when ask
 }
 
 TEST_CASE("table --csv writes the joint-table post-processor's file", "[cli][table]") {
-  const std::string a = writeMotionText("table_csv.twm", test::programA());
+  const std::string a = writeMotionText("table_csv.twm", postproc::test::programA());
   const std::string csv = std::string(TW_TEST_OUTPUT_DIR) + "/table_csv.csv";
   const test::ToolRun run = runTool("table " + quoted(a) + " --csv " + quoted(csv));
   CAPTURE(run.output);

@@ -12,17 +12,17 @@
 #include <variant>
 
 #include "collision/collision_world.hpp"
+#include "kinematics/common/angles.hpp"
 #include "kinematics/forward_kinematics.hpp"
-#include "planner/cell_collision_world.hpp"
-#include "planner/job_loader.hpp"
-#include "planner/tool_path_builder.hpp"
-#include "postproc/motion_text_reader.hpp"
+#include "planner/cell/cell_collision_world.hpp"
+#include "planner/job/job_loader.hpp"
+#include "planner/toolpath/tool_path_builder.hpp"
+#include "postproc/motion_text/motion_text_reader.hpp"
 #include "tests/cli/cli_test_support.hpp"
 
 namespace tw::cli {
 namespace {
 
-constexpr double kPi = 3.14159265358979323846;
 // The bar of the end-to-end check (issue text): 0.1 mm and 0.1°, far above
 // the motion text's printed precision (0.001 mm, 1e-9 in the quaternion).
 constexpr double kPositionTolerance = 0.0001;

@@ -2,17 +2,18 @@
 // codes, its report and what it writes.
 #include <catch2/catch.hpp>
 
-#include "cli_test_support.hpp"
+#include "kinematics/common/angles.hpp"
 #include "kinematics/urdf_chain.hpp"
-#include "planner/cell_loader.hpp"
-#include "planner/job_loader.hpp"
+#include "planner/cell/cell_loader.hpp"
+#include "planner/job/job_loader.hpp"
+#include "tests/cli/cli_test_support.hpp"
 
 namespace tw::cli {
 namespace {
 
 using test::runTool;
 
-constexpr double kDeg = 3.14159265358979323846 / 180.0;
+constexpr double kDeg = kPi / 180.0;
 const std::string kSamplePoints = "samples/fixture_moved/bracket_reference_points.csv";
 
 /// A copy of the sample cell under the test output folder, loadable from there.

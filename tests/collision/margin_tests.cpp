@@ -9,7 +9,6 @@
 #include <string>
 
 #include "collision/collision_world.hpp"
-#include "kinematics/input_error.hpp"
 #include "tests/collision/test_arms.hpp"
 
 namespace tw::collision {

@@ -7,7 +7,7 @@
 #include <string>
 
 #include "collision/mesh_loader.hpp"
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/input_error.hpp"
 #include "tests/collision/mesh_files.hpp"
 #include "tests/test_support/text_damage.hpp"
 

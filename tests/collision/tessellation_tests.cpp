@@ -4,12 +4,12 @@
 
 #include "collision/mesh_trimming.hpp"
 #include "collision/tessellation.hpp"
+#include "kinematics/common/angles.hpp"
 #include "tests/collision/test_arms.hpp"
 
 namespace tw::collision {
 namespace {
 
-constexpr double kPi = 3.14159265358979323846;
 
 kinematics::LinkShape roundShape(kinematics::LinkShape::Kind kind, double radius, double length) {
   kinematics::LinkShape shape;

@@ -1,9 +1,10 @@
 #include "tests/collision/test_arms.hpp"
 
+#include "kinematics/common/angles.hpp"
+
 namespace tw::collision::test {
 namespace {
 
-constexpr double kPi = 3.14159265358979323846;
 
 kinematics::JointSpec joint(const std::string& name, kinematics::JointType type, double limit) {
   kinematics::JointSpec spec;

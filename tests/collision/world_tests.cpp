@@ -6,14 +6,14 @@
 #include "collision/collision_world.hpp"
 #include "collision/tessellation.hpp"
 #include "kinematics/arm_loader.hpp"
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/angles.hpp"
+#include "kinematics/common/input_error.hpp"
 #include "tests/collision/mesh_files.hpp"
 #include "tests/collision/test_arms.hpp"
 
 namespace tw::collision {
 namespace {
 
-constexpr double kPi = 3.14159265358979323846;
 const std::string kOut = TW_TEST_OUTPUT_DIR;
 
 kinematics::JointVector joints(std::initializer_list<double> values) {
@@ -300,14 +300,14 @@ TEST_CASE("Bad world descriptions and misuse give clear errors") {
     const CollisionWorld first(arm, description);
     const CollisionWorld second(arm, description);
     CollisionWorkspace workspace(first);
-    CHECK_THROWS_AS(second.checkState(joints({0.0}), workspace), InputError);
+    CHECK_THROWS_AS(second.checkState(joints({0.0}), workspace), std::invalid_argument);
   }
   SECTION("a joint vector of the wrong size") {
     const CollisionWorld world(arm, description);
     CollisionWorkspace workspace(world);
     CHECK_THROWS_WITH(world.checkState(joints({0.0, 1.0}), workspace),
                       Catch::Contains("2 values"));
-    CHECK_THROWS_AS(world.checkSegment(joints({0.0}), joints({0.0, 1.0}), workspace), InputError);
+    CHECK_THROWS_AS(world.checkSegment(joints({0.0}), joints({0.0, 1.0}), workspace), std::invalid_argument);
   }
   SECTION("a joint value that is not a number") {
     const CollisionWorld world(arm, description);

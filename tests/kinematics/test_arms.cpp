@@ -1,11 +1,12 @@
 #include "tests/kinematics/test_arms.hpp"
 
 #include "kinematics/arm_loader.hpp"
+#include "kinematics/common/angles.hpp"
 
 namespace tw::kinematics::test {
 namespace {
 
-constexpr double kDeg = 3.14159265358979323846 / 180.0;
+constexpr double kDeg = kPi / 180.0;
 
 ArmModel orthoArm(const std::array<double, 6>& lower, const std::array<double, 6>& upper) {
   OrthoParallelGeometry geometry;

@@ -3,6 +3,7 @@
 #include <string>
 
 #include "kinematics/arm_model.hpp"
+#include "kinematics/common/angles.hpp"
 
 namespace tw::kinematics::test {
 
@@ -10,8 +11,8 @@ namespace tw::kinematics::test {
 /// domain-facts reference (§4): (a1, a2, b, c1, c2, c3, c4) =
 /// (0.20, 0.10, 0.05, 0.50, 0.70, 0.80, 0.15) m, with the given limits on
 /// every joint [rad] and generous rates.
-ArmModel referenceOrthoArm(double lower = -3.14159265358979323846,
-                           double upper = 3.14159265358979323846);
+ArmModel referenceOrthoArm(double lower = -kPi,
+                           double upper = kPi);
 
 /// Same geometry, with axes 4 and 6 allowed ±350° (multi-turn) and 1–3, 5
 /// limited as on an ordinary arm.

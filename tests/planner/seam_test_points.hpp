@@ -5,7 +5,8 @@
 #include <optional>
 #include <vector>
 
-#include "planner/seam_point.hpp"
+#include "kinematics/common/angles.hpp"
+#include "planner/job/seam_point.hpp"
 
 namespace tw::planner::test {
 
@@ -32,7 +33,7 @@ inline SeamPointList pointList(const std::vector<Eigen::Vector3d>& positions,
 inline SeamPointList pipeFillet(double radius, double step_deg) {
   std::vector<Eigen::Vector3d> p, n1, n2;
   for (double deg = 0.0; deg <= 90.0 + 1e-9; deg += step_deg) {
-    const double a = deg * 3.14159265358979323846 / 180.0;
+    const double a = deg * kPi / 180.0;
     const Eigen::Vector3d radial(std::cos(a), std::sin(a), 0.0);
     p.push_back(radius * radial);
     n1.push_back(Eigen::Vector3d::UnitZ());

@@ -3,10 +3,11 @@
 #include <catch2/catch.hpp>
 #include <fstream>
 #include <functional>
+#include <sstream>
 #include <stdexcept>
 #include <string>
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/input_error.hpp"
 
 namespace tw::planner::test {
 
@@ -17,6 +18,30 @@ inline std::string writeTestFile(const std::string& name, const std::string& tex
   file << text;
   if (!file) throw std::runtime_error("cannot write test file " + path);
   return path;
+}
+
+inline std::string readText(const std::string& path) {
+  std::ifstream input(path, std::ios::binary);
+  if (!input) throw std::runtime_error("cannot read " + path);
+  std::ostringstream text;
+  text << input.rdbuf();
+  return text.str();
+}
+
+/// The text of the sample welding cell with its arm and mesh files named by
+/// absolute path, so that a copy loads from anywhere.
+inline std::string sampleCellText() {
+  std::string text = readText(std::string(TW_SOURCE_DIR) + "/samples/cells/bracket_weld_cell.xml");
+  const auto make_absolute = [&text](const std::string& from, const std::string& to) {
+    const std::size_t at = text.find(from);
+    if (at == std::string::npos) throw std::runtime_error("the sample cell lacks " + from);
+    text.replace(at, from.size(), to);
+  };
+  make_absolute("file=\"../arms/weld_arm_1400.xml\"",
+                std::string("file=\"") + TW_SOURCE_DIR + "/samples/arms/weld_arm_1400.xml\"");
+  make_absolute("file=\"meshes/gusset.obj\"",
+                std::string("file=\"") + TW_SOURCE_DIR + "/samples/cells/meshes/gusset.obj\"");
+  return text;
 }
 
 /// The 1-based line of the first occurrence of `needle` in `text`.

@@ -5,7 +5,7 @@
 
 #include "collision/collision_world.hpp"
 #include "kinematics/arm_model.hpp"
-#include "planner/joint_path.hpp"
+#include "planner/transit/joint_path.hpp"
 
 namespace tw::planner::test {
 

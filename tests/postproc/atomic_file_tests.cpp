@@ -2,10 +2,10 @@
 #include <filesystem>
 #include <stdexcept>
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/input_error.hpp"
 #include "postproc/atomic_file.hpp"
-#include "postproc/motion_text_post_processor.hpp"
-#include "sample_program.hpp"
+#include "postproc/motion_text/motion_text_post_processor.hpp"
+#include "tests/postproc/sample_program.hpp"
 
 using namespace tw::postproc;
 namespace fs = std::filesystem;

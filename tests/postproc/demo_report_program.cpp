@@ -1,4 +1,4 @@
-#include "demo_report_program.hpp"
+#include "tests/postproc/demo_report_program.hpp"
 
 #include <cmath>
 #include <limits>
@@ -6,6 +6,7 @@
 
 #include "kinematics/arm_loader.hpp"
 #include "kinematics/arm_model.hpp"
+#include "kinematics/common/angles.hpp"
 #include "kinematics/ortho_parallel_ik.hpp"
 #include "planner/program/sha256.hpp"
 
@@ -18,7 +19,7 @@ using planner::ProcessEvent;
 using planner::ProcessEventKind;
 using planner::SpeedKind;
 
-double deg(double value) { return value * M_PI / 180.0; }
+double deg(double value) { return value * tw::kPi / 180.0; }
 
 /// An axis-aligned box as 12 triangles, corners in mm.
 ReportBody box(const std::string& name, const Eigen::Vector3d& low_mm,

@@ -1,7 +1,7 @@
 #pragma once
 
 #include "planner/program/program.hpp"
-#include "postproc/report_cell.hpp"
+#include "postproc/report/report_cell.hpp"
 
 namespace tw::postproc::test {
 

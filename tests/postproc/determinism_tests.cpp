@@ -3,7 +3,7 @@
 #include <sstream>
 
 #include "postproc/post_processor_registry.hpp"
-#include "sample_program.hpp"
+#include "tests/postproc/sample_program.hpp"
 
 using namespace tw::postproc;
 

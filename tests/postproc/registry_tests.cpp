@@ -2,9 +2,9 @@
 #include <memory>
 #include <sstream>
 
-#include "kinematics/input_error.hpp"
+#include "kinematics/common/input_error.hpp"
 #include "postproc/post_processor_registry.hpp"
-#include "sample_program.hpp"
+#include "tests/postproc/sample_program.hpp"
 
 using namespace tw::postproc;
 

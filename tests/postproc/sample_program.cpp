@@ -1,10 +1,12 @@
-#include "sample_program.hpp"
+#include "tests/postproc/sample_program.hpp"
 
 #include <cmath>
 #include <fstream>
 #include <optional>
 #include <sstream>
 #include <stdexcept>
+
+#include "kinematics/common/angles.hpp"
 
 namespace tw::postproc::test {
 namespace {
@@ -15,7 +17,7 @@ using planner::ProcessEvent;
 using planner::ProcessEventKind;
 using planner::SpeedKind;
 
-double deg(double value) { return value * M_PI / 180.0; }
+double deg(double value) { return value * tw::kPi / 180.0; }
 
 MotionRecord motion(MotionKind kind, std::initializer_list<double> q_deg,
                     const Eigen::Vector3d& p_RT_mm, double start, double duration) {
@@ -27,7 +29,7 @@ MotionRecord motion(MotionKind kind, std::initializer_list<double> q_deg,
   // Torch pointing down, turned 30° about the world z axis.
   record.X_RT = Eigen::Isometry3d::Identity();
   record.X_RT.linear() = (Eigen::AngleAxisd(deg(30.0), Eigen::Vector3d::UnitZ()) *
-                          Eigen::AngleAxisd(M_PI, Eigen::Vector3d::UnitX()))
+                          Eigen::AngleAxisd(tw::kPi, Eigen::Vector3d::UnitX()))
                              .toRotationMatrix();
   record.X_RT.translation() = p_RT_mm / 1000.0;
   record.tool = "torch_22deg";

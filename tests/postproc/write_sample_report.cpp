@@ -4,9 +4,9 @@
 #include <exception>
 #include <iostream>
 
-#include "demo_report_program.hpp"
 #include "postproc/atomic_file.hpp"
-#include "postproc/html_report_post_processor.hpp"
+#include "postproc/report/html_report_post_processor.hpp"
+#include "tests/postproc/demo_report_program.hpp"
 
 int main(int argc, char** argv) {
   if (argc != 2) {

@@ -1,0 +1,38 @@
+#include "planner/job/process_parameters.hpp"
+
+namespace tw::planner {
+
+const char* toString(ProcessKind kind) {
+  switch (kind) {
+    case ProcessKind::kWeld:
+      return "weld";
+    case ProcessKind::kPaint:
+      return "paint";
+    case ProcessKind::kDispense:
+      return "dispense";
+  }
+  return "unknown";
+}
+
+const char* toString(TravelTilt tilt) {
+  switch (tilt) {
+    case TravelTilt::kPush:
+      return "push";
+    case TravelTilt::kDrag:
+      return "drag";
+  }
+  return "unknown";
+}
+
+ProcessKind kindOf(const ProcessParameters& parameters) {
+  switch (parameters.index()) {
+    case 0:
+      return ProcessKind::kWeld;
+    case 1:
+      return ProcessKind::kPaint;
+    default:
+      return ProcessKind::kDispense;
+  }
+}
+
+}  // namespace tw::planner

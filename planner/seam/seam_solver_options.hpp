@@ -1,0 +1,73 @@
+#pragma once
+
+#include <Eigen/Core>
+#include <map>
+#include <optional>
+#include <string>
+
+#include "kinematics/common/angles.hpp"
+#include "kinematics/joint.hpp"
+
+namespace tw::planner {
+
+/// Settings of the seam solver, set by field name. Angles [rad], lengths [m].
+struct SeamSolverOptions {
+  /// Spacing of the spin samples within the tool's spin range. 10°: the
+  /// issue's default (finer costs IK calls linearly).
+  double spin_step = 10.0 * kPi / 180.0;
+  /// Largest change of the spin from one waypoint to the next. 90°: a
+  /// corner turned on the spot may need the tool to keep its orientation
+  /// while the seam frame turns by the corner angle (common practice, no
+  /// source); the joint bound below still applies.
+  double max_spin_change = 90.0 * kPi / 180.0;
+  /// Axis 5 nearer than this to 0 or ±180° is rejected: axes 4 and 6 line up
+  /// and a small tool motion needs a large wrist rotation. 2°: common
+  /// practice, no source.
+  double wrist_hard_margin = 2.0 * kPi / 180.0;
+  /// Axis 5 nearer than this is kept but flagged in the result (domain-facts
+  /// §6.2 suggests warning at 10°, from memory).
+  double wrist_warning_margin = 10.0 * kPi / 180.0;
+  /// Optional dress-pack protection: a candidate with |q4| + |q6| above
+  /// this (the twist both wrist axes put on the hoses from their zero) is
+  /// rejected. Off by default.
+  std::optional<double> wrist_twist_limit;
+  /// Bound on each joint's change between consecutive waypoints: at most
+  /// joint_rate · travel + joint_step_floor, where travel is the TCP
+  /// distance plus rotation_lever times the tool's rotation angle (so a
+  /// corner turned on the spot still has travel). 20 rad/m: about ten times
+  /// what a 1.4 m arm needs away from singularities (common practice, no
+  /// source).
+  double joint_rate = 20.0;             ///< [rad/m]
+  double joint_step_floor = 0.005;      ///< [rad]
+  double rotation_lever = 0.100;        ///< [m/rad]
+  /// Continuity test: the joint-space midpoint of every (sub)step, through
+  /// FK, must lie this close to the Cartesian interpolation of the step.
+  double continuity_position = 0.0005;  ///< [m]
+  double continuity_angle = 0.0087;     ///< [rad] (0.5°)
+  /// The linear TCP motion between two waypoints is re-solved in the same
+  /// branch at least this finely before it is accepted.
+  double interpolation_step = 0.001;    ///< [m]
+  double interpolation_angle = 0.035;   ///< [rad] (2°)
+  /// Per-joint weights of the motion cost Σ w_j |Δq_j|; empty: 1/max
+  /// velocity of each joint, so the cost is the time-like sum of joint
+  /// motions at full speed [s].
+  Eigen::VectorXd weights;
+  /// Seams solved at once by solveJob; results do not depend on it.
+  int threads = 2;
+  /// By seam (task) name, a configuration to stay near instead of the
+  /// cell's home (used by solveJob as SeamSetting::reference): the seam's
+  /// first waypoint in an earlier program, so that a regenerated program
+  /// keeps each seam's branch, spin and turns wherever they still work.
+  std::map<std::string, kinematics::JointVector> references;
+};
+
+/// Work done by one solve, for benchmarks and reports.
+struct SolverCounts {
+  long candidates = 0;        ///< joint vectors generated (in limits) over all waypoints
+  long ik_calls = 0;          ///< closed-form solves (candidates and interpolation)
+  long state_checks = 0;      ///< collision state checks, including those inside segment checks
+  long edges_validated = 0;   ///< steps fully checked (interpolation, continuity, collision)
+  int searches = 0;           ///< shortest-path searches (1 + re-plans)
+};
+
+}  // namespace tw::planner
