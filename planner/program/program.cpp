@@ -3,9 +3,12 @@
 #include <algorithm>
 #include <cmath>
 #include <set>
+#include <stdexcept>
+#include <utility>
 
 #include "kinematics/arm_model.hpp"
 #include "kinematics/common/input_error.hpp"
+#include "planner/program/motion_path.hpp"
 
 namespace tw::planner {
 namespace {
@@ -63,23 +66,45 @@ std::optional<std::string> metadataProblem(const Program& program) {
   return std::nullopt;
 }
 
-std::optional<std::string> motionProblem(const ProgramMetadata& meta, const MotionRecord& motion) {
+/// `what` is "" for the target, "via " for a via point.
+std::optional<std::string> jointsProblem(const ProgramMetadata& meta,
+                                         const kinematics::JointVector& q,
+                                         const std::string& what) {
   const int joint_count = static_cast<int>(meta.joints.size());
-  if (motion.q.size() != joint_count) {
-    return "has " + std::to_string(motion.q.size()) + " joint values; the arm has " +
+  if (q.size() != joint_count) {
+    return "has " + std::to_string(q.size()) + " " + what + "joint values; the arm has " +
            std::to_string(joint_count) + " joints";
   }
   for (int i = 0; i < joint_count; ++i) {
     const ProgramJoint& joint = meta.joints[i];
-    if (!std::isfinite(motion.q[i]) || motion.q[i] < joint.lower || motion.q[i] > joint.upper) {
-      return "joint '" + joint.name + "' value is not finite or outside its limits";
+    if (!std::isfinite(q[i]) || q[i] < joint.lower || q[i] > joint.upper) {
+      return what + "joint '" + joint.name + "' value is not finite or outside its limits";
     }
   }
-  const Eigen::Matrix3d rotation = motion.X_RT.linear();
-  if (!motion.X_RT.translation().allFinite() || !rotation.allFinite() ||
-      !(rotation.transpose() * rotation).isIdentity(kRotationTolerance) ||
-      std::abs(rotation.determinant() - 1.0) > kRotationTolerance) {
+  return std::nullopt;
+}
+
+bool isProperPose(const Eigen::Isometry3d& X) {
+  const Eigen::Matrix3d rotation = X.linear();
+  return X.translation().allFinite() && rotation.allFinite() &&
+         (rotation.transpose() * rotation).isIdentity(kRotationTolerance) &&
+         std::abs(rotation.determinant() - 1.0) <= kRotationTolerance;
+}
+
+std::optional<std::string> motionProblem(const ProgramMetadata& meta, const MotionRecord& motion) {
+  if (auto problem = jointsProblem(meta, motion.q, "")) return problem;
+  if (!isProperPose(motion.X_RT)) {
     return std::string("TCP pose is not finite or its rotation is not a proper rotation");
+  }
+  const bool circular = motion.kind == MotionKind::kCircularMove;
+  if (circular != motion.via.has_value()) {
+    return std::string(circular ? "needs a via point" : "has a via point; only a circular move has one");
+  }
+  if (motion.via) {
+    if (auto problem = jointsProblem(meta, motion.via->q_via, "via ")) return problem;
+    if (!isProperPose(motion.via->X_RV)) {
+      return std::string("via TCP pose is not finite or its rotation is not a proper rotation");
+    }
   }
   if (auto problem = textProblem("tool id", motion.tool, false)) return problem;
   if (auto problem = textProblem("frame id", motion.frame, false)) return problem;
@@ -107,6 +132,43 @@ std::optional<std::string> motionProblem(const ProgramMetadata& meta, const Moti
   return std::nullopt;
 }
 
+/// A problem between two consecutive motions (`previous` may be null): the
+/// message and whether it belongs to the previous record (true) or to
+/// `motion` (false).
+std::optional<std::pair<bool, std::string>> sequenceProblem(const MotionRecord* previous,
+                                                            const MotionRecord& motion) {
+  const bool blended = previous && previous->blend_radius > 0.0;
+  if (blended && previous->tool != motion.tool) {
+    return std::make_pair(true, std::string("has a blend radius but the next motion uses another "
+                                            "tool; the radius is measured at the TCP (use 0)"));
+  }
+  if (motion.kind == MotionKind::kCircularMove) {
+    if (!previous) {
+      return std::make_pair(false, std::string("is the first motion; a circular move starts at "
+                                               "the target of the motion before it"));
+    }
+    if (previous->tool != motion.tool || previous->frame != motion.frame) {
+      return std::make_pair(false, std::string("follows a motion with another tool or frame; a "
+                                               "circular move starts at the previous target, "
+                                               "which must be in its tool and frame"));
+    }
+    if (auto problem = arcPointProblem(previous->X_RT.translation(),
+                                       motion.via->X_RV.translation(),
+                                       motion.X_RT.translation())) {
+      return std::make_pair(false, *problem);
+    }
+  }
+  if (previous && previous->frame == motion.frame) {
+    const double distance = (motion.X_RT.translation() - previous->X_RT.translation()).norm();
+    if (previous->blend_radius + motion.blend_radius > distance + kBlendOverlapSlack) {
+      return std::make_pair(false, std::string("and the motion before it have blend radii whose "
+                                               "sum exceeds the distance between their targets; "
+                                               "their blend zones would overlap"));
+    }
+  }
+  return std::nullopt;
+}
+
 double startTime(const ProgramRecord& record) {
   if (const auto* motion = std::get_if<MotionRecord>(&record)) return motion->start_time;
   return std::get<ProcessEvent>(record).time;
@@ -122,7 +184,12 @@ double endTime(const ProgramRecord& record) {
 }  // namespace
 
 const char* toString(MotionKind kind) {
-  return kind == MotionKind::kJointMove ? "joint-move" : "linear-move";
+  switch (kind) {
+    case MotionKind::kJointMove: return "joint-move";
+    case MotionKind::kLinearMove: return "linear-move";
+    case MotionKind::kCircularMove: return "circular-move";
+  }
+  throw std::invalid_argument("unknown motion kind");
 }
 
 const char* toString(ProcessEventKind kind) {
@@ -137,6 +204,10 @@ std::optional<ProgramProblem> findProgramProblem(const Program& program) {
   if (auto problem = metadataProblem(program)) return ProgramProblem{-1, *problem};
   std::optional<std::string> open_set;  // parameter set of the process that is on
   double previous_start = 0.0;
+  int previous_motion = -1;  // index of the last motion record seen
+  const auto blendLabel = [](int index, const MotionRecord& motion) {
+    return "record " + std::to_string(index + 1) + " (" + toString(motion.kind) + ") ";
+  };
   for (std::size_t i = 0; i < program.records.size(); ++i) {
     const ProgramRecord& record = program.records[i];
     const int index = static_cast<int>(i);
@@ -151,7 +222,26 @@ std::optional<ProgramProblem> findProgramProblem(const Program& program) {
       if (auto problem = motionProblem(program.metadata, *motion)) {
         return ProgramProblem{index, label + "(" + toString(motion->kind) + ") " + *problem};
       }
+      const MotionRecord* previous =
+          previous_motion >= 0 ? &std::get<MotionRecord>(program.records[previous_motion]) : nullptr;
+      if (auto problem = sequenceProblem(previous, *motion)) {
+        const bool at_previous = problem->first;
+        return ProgramProblem{at_previous ? previous_motion : index,
+                              blendLabel(at_previous ? previous_motion : index,
+                                         at_previous ? *previous : *motion) +
+                                  problem->second};
+      }
+      previous_motion = index;
       continue;
+    }
+    if (previous_motion >= 0) {
+      const auto& previous = std::get<MotionRecord>(program.records[previous_motion]);
+      if (previous.blend_radius > 0.0) {
+        return ProgramProblem{previous_motion,
+                              blendLabel(previous_motion, previous) +
+                                  "has a blend radius but a process event follows it; a blend "
+                                  "may not round a corner where the process switches (use 0)"};
+      }
     }
     const auto& event = std::get<ProcessEvent>(record);
     if (auto problem = textProblem("parameter set", event.parameter_set, false)) {
@@ -180,6 +270,14 @@ std::optional<ProgramProblem> findProgramProblem(const Program& program) {
   if (open_set) {
     return ProgramProblem{static_cast<int>(program.records.size()) - 1,
                           "the program ends with the process '" + *open_set + "' still on"};
+  }
+  if (previous_motion >= 0) {
+    const auto& last = std::get<MotionRecord>(program.records[previous_motion]);
+    if (last.blend_radius > 0.0) {
+      return ProgramProblem{previous_motion, blendLabel(previous_motion, last) +
+                                                 "is the last motion and has a blend radius; the "
+                                                 "program must end with an exact stop (use 0)"};
+    }
   }
   return std::nullopt;
 }

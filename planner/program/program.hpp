@@ -15,8 +15,8 @@ class ArmModel;
 
 namespace tw::planner {
 
-enum class MotionKind { kJointMove, kLinearMove };
-/// "joint-move" or "linear-move", as written in files.
+enum class MotionKind { kJointMove, kLinearMove, kCircularMove };
+/// "joint-move", "linear-move" or "circular-move", as written in files.
 const char* toString(MotionKind kind);
 
 enum class SpeedKind {
@@ -29,9 +29,25 @@ struct MotionSpeed {
   double value = 0.0;  ///< [m/s] for kTcpSpeed, unitless in (0, 1] for kJointSpeedFraction
 };
 
+/// The point a circular move passes through between its start and its target.
+struct ViaPoint {
+  /// Joint values at the via point, in the units and order of MotionRecord::q.
+  kinematics::JointVector q_via;
+  /// TCP pose at the via point in the record's reference frame R. Its position
+  /// fixes the circle; its orientation is the one the arm has there as planned.
+  /// The controller's orientation is slerped from the start to the target
+  /// (postproc/FORMAT.md, "How a controller interpolates the records"), so the
+  /// via orientation is information for dialects that want a whole via pose,
+  /// not a third orientation to pass through.
+  Eigen::Isometry3d X_RV = Eigen::Isometry3d::Identity();
+};
+
 /// One move of the arm, from where the previous motion ended to this target.
 /// A joint move interpolates in joint space, a linear move moves the TCP on a
-/// straight line with its orientation interpolated.
+/// straight line, a circular move on the circle through its start (the
+/// previous motion's target), its via point and its target; linear and
+/// circular moves slerp the orientation from start to target by the fraction
+/// of path length (planner/program/motion_path.hpp computes both).
 struct MotionRecord {
   MotionKind kind = MotionKind::kJointMove;
   /// Target joint values in chain order, [rad] revolute, [m] prismatic; one per
@@ -42,7 +58,13 @@ struct MotionRecord {
   std::string tool;   ///< id of the tool whose TCP X_RT means
   std::string frame;  ///< id of the reference frame R
   MotionSpeed speed;
-  double blend_radius = 0.0;  ///< [m]; 0 means stop exactly at the target
+  /// Blend radius [m] at the END of this motion, i.e. around this record's
+  /// target: the path leaves this motion where the TCP comes within this
+  /// distance of the target and joins the next motion where it leaves that
+  /// sphere. 0 means stop exactly at the target; it must be 0 on the last
+  /// motion, before a process event and before a change of tool, and the
+  /// blend zones of neighbouring targets may not overlap.
+  double blend_radius = 0.0;
   double start_time = 0.0;    ///< [s] from the start of the program
   double duration = 0.0;      ///< [s]
   /// The seam this motion belongs to (its approach, process moves, retract);
@@ -59,6 +81,8 @@ struct MotionRecord {
   /// How far the target stays from the nearest singular configuration the
   /// planner checks, as an angle [rad] (for a spherical wrist: |axis 5|).
   std::optional<double> singularity_margin;
+  /// The via point; present exactly when `kind` is kCircularMove.
+  std::optional<ViaPoint> via;
 };
 
 enum class ProcessEventKind { kStart, kStop };
@@ -132,10 +156,24 @@ struct ProgramProblem {
 /// Checks what every writer relies on: joints named, unique, lower < upper;
 /// every motion with one finite value per joint within its limits, a proper
 /// rotation, non-empty tool and frame, a positive speed (a fraction at most
-/// 1), non-negative blend and duration; start times non-decreasing; process
-/// events alternating on/off with matching parameter sets and no process
-/// left on at the end; hashes of 64 lower-case hex digits; no control
-/// characters in any text. Returns nullopt for a consistent program.
+/// 1), non-negative duration; start times non-decreasing; process events
+/// alternating on/off with matching parameter sets and no process left on
+/// at the end; hashes of 64 lower-case hex digits; no control characters in
+/// any text.
+///
+/// Circular moves: a via point exactly on circular moves, with joints and
+/// pose checked like a target; a circular move follows a motion with the
+/// same tool and frame (its start), and start, via and target are at least
+/// kArcPointSeparation apart and off one straight line by at least as much
+/// (planner/program/motion_path.hpp).
+///
+/// Blends: finite and ≥ 0; 0 on the last motion, on a motion followed by a
+/// process event before the next motion (a blend may not round a corner
+/// where the process switches) and on a motion followed by one with another
+/// tool (the radius is measured at the TCP); for consecutive motions in the
+/// same frame, blend of the first + blend of the second ≤ the distance
+/// between their targets (+ kBlendOverlapSlack), so that blend zones do not
+/// overlap. Returns nullopt for a consistent program.
 std::optional<ProgramProblem> findProgramProblem(const Program& program);
 
 /// Throws tw::InputError naming `source` and the record when

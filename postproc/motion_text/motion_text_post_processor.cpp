@@ -17,20 +17,31 @@ using planner::MotionRecord;
 using planner::ProcessEvent;
 using planner::Program;
 
+std::string jointList(const Program& program, const FileQuantities& quantities,
+                      const kinematics::JointVector& q) {
+  std::string joints;
+  for (int i = 0; i < q.size(); ++i) {
+    if (i > 0) joints += ',';
+    joints += quantities.joint(program.metadata.joints[i].type).format(q[i]);
+  }
+  return joints;
+}
+
 std::string motionLine(const Program& program, const FileQuantities& quantities,
                        const MotionRecord& motion, std::size_t number) {
   const PoseText pose = poseText(motion.X_RT, quantities);
-  std::string joints;
-  for (int i = 0; i < motion.q.size(); ++i) {
-    if (i > 0) joints += ',';
-    joints += quantities.joint(program.metadata.joints[i].type).format(motion.q[i]);
-  }
+  const std::string joints = jointList(program, quantities, motion.q);
   std::string line = std::string(toString(motion.kind)) + " n=" + std::to_string(number) +
                      " start=" + quantities.time.format(motion.start_time) +
                      " duration=" + quantities.time.format(motion.duration) +
                      " tool=" + quoteText(motion.tool) + " frame=" + quoteText(motion.frame) +
                      " joints=" + joints + " position=" + pose.position +
                      " orientation=" + pose.orientation;
+  if (motion.via) {
+    const PoseText via = poseText(motion.via->X_RV, quantities);
+    line += " via_joints=" + jointList(program, quantities, motion.via->q_via) +
+            " via_position=" + via.position + " via_orientation=" + via.orientation;
+  }
   if (motion.speed.kind == planner::SpeedKind::kTcpSpeed) {
     line += " tcp_speed=" + quantities.speed.format(motion.speed.value);
   } else {

@@ -170,8 +170,8 @@ std::optional<Section> sectionOf(const std::string& keyword) {
   if (keyword == "input") return Section::kInputs;
   if (keyword == "joint") return Section::kJoints;
   if (keyword == "warning") return Section::kWarnings;
-  if (keyword == "joint-move" || keyword == "linear-move" || keyword == "process-on" ||
-      keyword == "process-off") {
+  if (keyword == "joint-move" || keyword == "linear-move" || keyword == "circular-move" ||
+      keyword == "process-on" || keyword == "process-off") {
     return Section::kRecords;
   }
   if (keyword == "end") return Section::kEnd;
@@ -255,7 +255,7 @@ class MotionTextParser {
     if (!section) {
       fail(line.number, "unknown line keyword '" + parsed.keyword +
                             "'; expected units, program, input, joint, warning, joint-move, "
-                            "linear-move, process-on, process-off or end");
+                            "linear-move, circular-move, process-on, process-off or end");
     }
     if (seen_end_) fail(line.number, "nothing but comments may follow the 'end' line");
     const bool repeated = (*section == Section::kUnits && seen_units_) ||
@@ -355,32 +355,52 @@ class MotionTextParser {
     program_.records.emplace_back(readMotion(keyword, fields));
   }
 
+  kinematics::JointVector readJoints(FieldReader& fields, const std::string& key) {
+    const std::vector<planner::ProgramJoint>& joints = program_.metadata.joints;
+    const std::vector<double> written =
+        fields.numbers(key, joints.size(), QuantityFormat{1.0, "the joints' units", 0});
+    kinematics::JointVector q(static_cast<int>(joints.size()));
+    for (std::size_t i = 0; i < joints.size(); ++i) {
+      q[static_cast<int>(i)] = written[i] / quantities_.joint(joints[i].type).scale;
+    }
+    return q;
+  }
+
+  /// The pose of the fields `<prefix>position` and `<prefix>orientation`.
+  Eigen::Isometry3d readPose(FieldReader& fields, const std::string& prefix) {
+    const std::vector<double> p = fields.numbers(prefix + "position", 3, quantities_.length);
+    const std::vector<double> w = fields.numbers(prefix + "orientation", 4, quantities_.quaternion);
+    Eigen::Quaterniond orientation(w[0], w[1], w[2], w[3]);
+    if (std::abs(orientation.norm() - 1.0) > kUnitQuaternionTolerance) {
+      fields.fail("field '" + prefix + "orientation' expects a unit quaternion w,x,y,z; its norm is " +
+                  std::to_string(orientation.norm()));
+    }
+    orientation.normalize();
+    Eigen::Isometry3d X = Eigen::Isometry3d::Identity();
+    X.linear() = orientation.toRotationMatrix();
+    X.translation() = Eigen::Vector3d(p[0], p[1], p[2]);
+    return X;
+  }
+
   MotionRecord readMotion(const std::string& keyword, FieldReader& fields) {
     MotionRecord motion;
-    motion.kind = keyword == "joint-move" ? planner::MotionKind::kJointMove
-                                          : planner::MotionKind::kLinearMove;
+    motion.kind = keyword == "joint-move"    ? planner::MotionKind::kJointMove
+                  : keyword == "linear-move" ? planner::MotionKind::kLinearMove
+                                             : planner::MotionKind::kCircularMove;
     motion.start_time = fields.number("start", quantities_.time);
     motion.duration = fields.number("duration", quantities_.time);
     motion.tool = fields.text("tool");
     motion.frame = fields.text("frame");
-    const std::vector<planner::ProgramJoint>& joints = program_.metadata.joints;
-    const std::vector<double> written =
-        fields.numbers("joints", joints.size(), QuantityFormat{1.0, "the joints' units", 0});
-    motion.q.resize(static_cast<int>(joints.size()));
-    for (std::size_t i = 0; i < joints.size(); ++i) {
-      motion.q[static_cast<int>(i)] = written[i] / quantities_.joint(joints[i].type).scale;
+    motion.q = readJoints(fields, "joints");
+    motion.X_RT = readPose(fields, "");
+    // Only a circular move takes via fields; on another kind they stay
+    // unread and finish() reports them as unknown.
+    if (motion.kind == planner::MotionKind::kCircularMove) {
+      planner::ViaPoint via;
+      via.q_via = readJoints(fields, "via_joints");
+      via.X_RV = readPose(fields, "via_");
+      motion.via = std::move(via);
     }
-    const std::vector<double> p = fields.numbers("position", 3, quantities_.length);
-    const std::vector<double> w = fields.numbers("orientation", 4, quantities_.quaternion);
-    Eigen::Quaterniond orientation(w[0], w[1], w[2], w[3]);
-    if (std::abs(orientation.norm() - 1.0) > kUnitQuaternionTolerance) {
-      fields.fail("field 'orientation' expects a unit quaternion w,x,y,z; its norm is " +
-                  std::to_string(orientation.norm()));
-    }
-    orientation.normalize();
-    motion.X_RT = Eigen::Isometry3d::Identity();
-    motion.X_RT.linear() = orientation.toRotationMatrix();
-    motion.X_RT.translation() = Eigen::Vector3d(p[0], p[1], p[2]);
     const bool tcp = fields.has("tcp_speed");
     if (tcp == fields.has("joint_speed")) {
       fields.fail("a motion needs exactly one of the fields 'tcp_speed' [" + quantities_.speed.unit +

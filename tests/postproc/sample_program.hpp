@@ -13,6 +13,14 @@ namespace tw::postproc::test {
 /// easy to check by hand.
 planner::Program sampleProgram();
 
+/// A second invented weld program with circular moves and blends, in the
+/// frame "fixture_b" with the same arm: a blended joint move to the start,
+/// a linear approach, process on, a linear weld, a half circle (radius
+/// 25 mm, the torch turning 90° with it), a linear weld back, process off,
+/// a blended linear lift, a three-quarter circle (radius 50 mm, in the
+/// plane x = 900 mm) and a joint move home. Round numbers, as above.
+planner::Program arcProgram();
+
 /// The text of a file under tests/postproc/data/.
 std::string readDataFile(const std::string& name);
 

@@ -1,5 +1,6 @@
 #include <catch2/catch.hpp>
 #include <cmath>
+#include <limits>
 
 #include "kinematics/arm_model.hpp"
 #include "kinematics/common/angles.hpp"
@@ -8,6 +9,7 @@
 #include "tests/postproc/sample_program.hpp"
 
 using namespace tw::planner;
+using tw::postproc::test::arcProgram;
 using tw::postproc::test::sampleProgram;
 
 namespace {
@@ -76,6 +78,113 @@ TEST_CASE("findProgramProblem names the first inconsistency and its record", "[p
   SECTION("checkProgram throws the project's error") {
     program.metadata.joints.clear();
     CHECK_THROWS_AS(checkProgram(program, "out.twm"), tw::InputError);
+  }
+}
+
+TEST_CASE("The arc program is consistent", "[program]") {
+  CHECK(problemOf(arcProgram()) == "(none)");
+}
+
+TEST_CASE("findProgramProblem checks circular moves and their via points", "[program]") {
+  Program program = arcProgram();
+  MotionRecord& half_circle = motionAt(program, 4);
+
+  SECTION("a circular move without a via point") {
+    half_circle.via.reset();
+    const std::optional<ProgramProblem> problem = findProgramProblem(program);
+    REQUIRE(problem);
+    CHECK(problem->record == 4);
+    CHECK_THAT(problem->message, Catch::Contains("(circular-move) needs a via point"));
+  }
+  SECTION("a via point on a linear move") {
+    motionAt(program, 3).via = half_circle.via;
+    CHECK_THAT(problemOf(program), Catch::Contains("(linear-move) has a via point"));
+  }
+  SECTION("via joints of the wrong size or outside the limits") {
+    half_circle.via->q_via.resize(5);
+    CHECK_THAT(problemOf(program), Catch::Contains("5 via joint values"));
+    half_circle.via->q_via = half_circle.q;
+    half_circle.via->q_via[4] = 126.0 * tw::kPi / 180.0;
+    CHECK_THAT(problemOf(program), Catch::Contains("via joint 'axis_5' value is not finite"));
+  }
+  SECTION("a via pose that is not a proper rotation") {
+    half_circle.via->X_RV.linear() *= -1.0;
+    CHECK_THAT(problemOf(program), Catch::Contains("via TCP pose is not finite"));
+  }
+  SECTION("a circular move as the first motion") {
+    program.records.erase(program.records.begin(), program.records.begin() + 4);
+    program.records.erase(program.records.begin() + 2);  // the process-off left alone
+    const std::optional<ProgramProblem> problem = findProgramProblem(program);
+    REQUIRE(problem);
+    CHECK(problem->record == 0);
+    CHECK_THAT(problem->message, Catch::Contains("is the first motion"));
+  }
+  SECTION("a circular move after a motion in another frame") {
+    motionAt(program, 3).frame = "fixture_c";
+    const std::optional<ProgramProblem> problem = findProgramProblem(program);
+    REQUIRE(problem);
+    CHECK(problem->record == 4);
+    CHECK_THAT(problem->message, Catch::Contains("another tool or frame"));
+  }
+  SECTION("a via on the straight line from start to target") {
+    // Start (950, 0, 410) mm, target (950, 50, 410) mm: a via at (950, 25,
+    // 410.009) mm is 9 µm off the line, under the 10 µm of kArcPointSeparation.
+    half_circle.via->X_RV.translation() = Eigen::Vector3d(0.950, 0.025, 0.410009);
+    CHECK_THAT(problemOf(program), Catch::Contains("lie on one straight line"));
+  }
+  SECTION("a via on the start") {
+    half_circle.via->X_RV.translation() = motionAt(program, 3).X_RT.translation();
+    CHECK_THAT(problemOf(program), Catch::Contains("not distinct"));
+  }
+}
+
+TEST_CASE("findProgramProblem checks the blend rules", "[program]") {
+  Program program = arcProgram();
+
+  SECTION("a blend on the last motion") {
+    motionAt(program, 9).blend_radius = 0.001;
+    const std::optional<ProgramProblem> problem = findProgramProblem(program);
+    REQUIRE(problem);
+    CHECK(problem->record == 9);
+    CHECK_THAT(problem->message, Catch::Contains("is the last motion and has a blend radius"));
+  }
+  SECTION("a blend into the process-on event") {
+    motionAt(program, 1).blend_radius = 0.001;
+    const std::optional<ProgramProblem> problem = findProgramProblem(program);
+    REQUIRE(problem);
+    CHECK(problem->record == 1);
+    CHECK_THAT(problem->message, Catch::Contains("a process event follows it"));
+  }
+  SECTION("a blend into the process-off event") {
+    motionAt(program, 5).blend_radius = 0.001;
+    const std::optional<ProgramProblem> problem = findProgramProblem(program);
+    REQUIRE(problem);
+    CHECK(problem->record == 5);
+  }
+  SECTION("blend zones that overlap") {
+    // Targets 4 and 5 are 50 mm apart (sample data): 2 mm + 48.1 mm is too much,
+    // 2 mm + 48 mm just fits.
+    motionAt(program, 4).blend_radius = 0.0480;
+    motionAt(program, 5).blend_radius = 0.0;
+    CHECK(problemOf(program) == "(none)");
+    motionAt(program, 4).blend_radius = 0.0481;
+    const std::optional<ProgramProblem> problem = findProgramProblem(program);
+    REQUIRE(problem);
+    CHECK(problem->record == 4);
+    CHECK_THAT(problem->message, Catch::Contains("blend zones would overlap"));
+  }
+  SECTION("a blend before a change of tool") {
+    for (std::size_t i = 8; i < program.records.size(); ++i) motionAt(program, static_cast<int>(i)).tool = "probe";
+    const std::optional<ProgramProblem> problem = findProgramProblem(program);
+    REQUIRE(problem);
+    CHECK(problem->record == 7);
+    CHECK_THAT(problem->message, Catch::Contains("uses another tool"));
+  }
+  SECTION("a negative or infinite blend") {
+    motionAt(program, 3).blend_radius = -0.001;
+    CHECK_THAT(problemOf(program), Catch::Contains("blend radius must be zero or positive"));
+    motionAt(program, 3).blend_radius = std::numeric_limits<double>::infinity();
+    CHECK_THAT(problemOf(program), Catch::Contains("blend radius must be zero or positive"));
   }
 }
 
