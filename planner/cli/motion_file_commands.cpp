@@ -15,6 +15,7 @@
 #include "kinematics/common/input_error.hpp"
 #include "kinematics/common/number_text.hpp"
 #include "planner/cli/exit_codes.hpp"
+#include "planner/program/motion_path.hpp"
 #include "postproc/atomic_file.hpp"
 #include "postproc/compare/motion_comparison.hpp"
 #include "postproc/file_quantities.hpp"
@@ -118,6 +119,16 @@ void printCompareJson(const CompareArguments& arguments, const Program& a, const
       entry["branch_a"] = change.branch_a;
       entry["branch_b"] = change.branch_b;
     }
+    if (!change.via_joint_deltas.empty()) {
+      ordered_json via_deltas = ordered_json::array();
+      for (std::size_t j = 0; j < change.via_joint_deltas.size(); ++j) {
+        via_deltas.push_back(
+            jsonNumber(q.joint(a.metadata.joints[j].type), change.via_joint_deltas[j]));
+      }
+      entry["via_joint_deltas"] = via_deltas;
+      entry["via_tcp_position_deviation"] = jsonNumber(q.length, change.via_position_deviation);
+      entry["via_tcp_angle_deviation"] = jsonNumber(q.angle, change.via_angle_deviation);
+    }
     changes.push_back(entry);
   }
   json["changes"] = changes;
@@ -170,9 +181,21 @@ void printCompareText(const CompareArguments& arguments, const Program& a, const
         std::printf(" %s",
                     q.joint(a.metadata.joints[j].type).format(change.joint_deltas[j]).c_str());
       }
-      std::printf("  TCP %s %s %s %s%s%s\n", q.length.format(change.position_deviation).c_str(),
+      std::printf("  TCP %s %s %s %s", q.length.format(change.position_deviation).c_str(),
                   q.length.unit.c_str(), q.angle.format(change.angle_deviation).c_str(),
-                  q.angle.unit.c_str(), change.branch_changed ? "  branch changed" : "",
+                  q.angle.unit.c_str());
+      if (!change.via_joint_deltas.empty()) {
+        std::printf("  via:");
+        for (std::size_t j = 0; j < change.via_joint_deltas.size(); ++j) {
+          std::printf(" %s", q.joint(a.metadata.joints[j].type)
+                                 .format(change.via_joint_deltas[j])
+                                 .c_str());
+        }
+        std::printf("  TCP %s %s %s %s", q.length.format(change.via_position_deviation).c_str(),
+                    q.length.unit.c_str(), q.angle.format(change.via_angle_deviation).c_str(),
+                    q.angle.unit.c_str());
+      }
+      std::printf("%s%s\n", change.branch_changed ? "  branch changed" : "",
                   change.tool_frame_or_set_changed ? "  tool, frame or set changed" : "");
     }
   }
@@ -236,9 +259,21 @@ class TablePrinter {
   void print() const {
     std::vector<std::vector<Cell>> rows(1);
     for (const std::string& column : arguments_.columns) appendHeader(column, rows.front());
+    const MotionRecord* previous = nullptr;
     for (std::size_t i = 0; i < program_.records.size(); ++i) {
+      const auto* motion = std::get_if<MotionRecord>(&program_.records[i]);
+      if (motion && motion->via) {
+        // A row of its own for the via point, before the target it leads to;
+        // the reader made sure a circular move follows a motion.
+        const double time = planner::viaPassingTime(previous->X_RT.translation(), *motion);
+        rows.emplace_back();
+        for (const std::string& column : arguments_.columns) {
+          appendViaCells(column, i, *motion, time, rows.back());
+        }
+      }
       rows.emplace_back();
       for (const std::string& column : arguments_.columns) appendCells(column, i, rows.back());
+      if (motion) previous = motion;
     }
     std::vector<std::size_t> widths(rows.front().size(), 0);
     for (const std::vector<Cell>& row : rows) {
@@ -278,6 +313,50 @@ class TablePrinter {
     }
   }
 
+  /// The via row of circular move `motion` (record index `index`), passed at `time`.
+  void appendViaCells(const std::string& column, std::size_t index, const MotionRecord& motion,
+                      double time, std::vector<Cell>& cells) const {
+    if (column == "record") {
+      cells.push_back({std::to_string(index + 1)});
+    } else if (column == "kind") {
+      cells.push_back({"via"});
+    } else if (column == "time") {
+      cells.push_back({q_.time.format(time)});
+    } else if (column == "seam") {
+      cells.push_back({motion.seam});
+    } else if (column == "branch") {
+      cells.push_back({motion.branch});
+    } else if (column == "joints" || column == "margins") {
+      appendJointCells(column, motion.via->q_via, cells);
+    } else if (column == "tcp") {
+      appendPoseCells(motion.via->X_RV, cells);
+    } else {
+      cells.emplace_back();  // speed, singularity, clearance: a target's figures
+    }
+  }
+
+  void appendJointCells(const std::string& column, const kinematics::JointVector& q,
+                        std::vector<Cell>& cells) const {
+    const kinematics::JointVector margins = planner::jointLimitMargins(program_.metadata, q);
+    for (int j = 0; j < q.size(); ++j) {
+      const QuantityFormat& format = q_.joint(program_.metadata.joints[j].type);
+      const double value = column == "joints" ? q[j] : margins[j];
+      cells.push_back({format.format(value), margins[j] * format.scale < arguments_.margin_warning});
+    }
+  }
+
+  void appendPoseCells(const Eigen::Isometry3d& X_RT, std::vector<Cell>& cells) const {
+    const postproc::PoseText pose = postproc::poseText(X_RT, q_);
+    for (const std::string& text : {pose.position, pose.orientation}) {
+      std::size_t begin = 0;
+      for (std::size_t comma = text.find(',');; comma = text.find(',', begin)) {
+        cells.push_back({text.substr(begin, comma - begin)});
+        if (comma == std::string::npos) break;
+        begin = comma + 1;
+      }
+    }
+  }
+
   void appendCells(const std::string& column, std::size_t index, std::vector<Cell>& cells) const {
     const planner::ProgramRecord& record = program_.records[index];
     const auto* motion = std::get_if<MotionRecord>(&record);
@@ -300,24 +379,9 @@ class TablePrinter {
                                                                            : 1;
       cells.insert(cells.end(), blanks, Cell{});
     } else if (column == "joints" || column == "margins") {
-      const kinematics::JointVector margins =
-          planner::jointLimitMargins(program_.metadata, motion->q);
-      for (std::size_t j = 0; j < joints; ++j) {
-        const QuantityFormat& format = q_.joint(program_.metadata.joints[j].type);
-        const double value = column == "joints" ? motion->q[j] : margins[j];
-        cells.push_back(
-            {format.format(value), margins[j] * format.scale < arguments_.margin_warning});
-      }
+      appendJointCells(column, motion->q, cells);
     } else if (column == "tcp") {
-      const postproc::PoseText pose = postproc::poseText(motion->X_RT, q_);
-      for (const std::string& text : {pose.position, pose.orientation}) {
-        std::size_t begin = 0;
-        for (std::size_t comma = text.find(',');; comma = text.find(',', begin)) {
-          cells.push_back({text.substr(begin, comma - begin)});
-          if (comma == std::string::npos) break;
-          begin = comma + 1;
-        }
-      }
+      appendPoseCells(motion->X_RT, cells);
     } else if (column == "speed") {
       cells.push_back({motion->speed.kind == planner::SpeedKind::kTcpSpeed
                            ? q_.speed.format(motion->speed.value) + " " + q_.length.unit + "/s"

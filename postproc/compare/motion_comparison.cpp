@@ -55,6 +55,24 @@ void keepLargest(LargestChange& largest, double value, const RecordChange& chang
   }
 }
 
+/// Joint deltas q_b − q_a into `deltas`; returns whether one is beyond the tolerances.
+bool jointDeltas(const kinematics::JointVector& q_a, const kinematics::JointVector& q_b,
+                 const planner::Program& a, const ComparisonTolerances& tolerances,
+                 std::vector<double>& deltas) {
+  bool changed = false;
+  for (int j = 0; j < q_a.size(); ++j) {
+    const double delta = q_b[j] - q_a[j];
+    deltas.push_back(delta);
+    const bool revolute = a.metadata.joints[j].type == kinematics::JointType::kRevolute;
+    changed |= std::abs(delta) > (revolute ? tolerances.revolute : tolerances.prismatic);
+  }
+  return changed;
+}
+
+double angleBetween(const Eigen::Isometry3d& X_a, const Eigen::Isometry3d& X_b) {
+  return Eigen::AngleAxisd(X_a.linear().transpose() * X_b.linear()).angle();
+}
+
 /// Fills the deltas of a matched pair; returns whether it differs beyond the tolerances.
 bool measure(const ProgramRecord& ra, const ProgramRecord& rb, const planner::Program& a,
              const ComparisonTolerances& tolerances, RecordChange& change) {
@@ -66,16 +84,18 @@ bool measure(const ProgramRecord& ra, const ProgramRecord& rb, const planner::Pr
     change.tool_frame_or_set_changed = ea.parameter_set != eb.parameter_set;
     return change.tool_frame_or_set_changed;
   }
-  bool changed = false;
-  for (int j = 0; j < ma->q.size(); ++j) {
-    const double delta = mb->q[j] - ma->q[j];
-    change.joint_deltas.push_back(delta);
-    const bool revolute = a.metadata.joints[j].type == kinematics::JointType::kRevolute;
-    changed |= std::abs(delta) > (revolute ? tolerances.revolute : tolerances.prismatic);
-  }
+  bool changed = jointDeltas(ma->q, mb->q, a, tolerances, change.joint_deltas);
   change.position_deviation = (mb->X_RT.translation() - ma->X_RT.translation()).norm();
-  change.angle_deviation =
-      Eigen::AngleAxisd(ma->X_RT.linear().transpose() * mb->X_RT.linear()).angle();
+  change.angle_deviation = angleBetween(ma->X_RT, mb->X_RT);
+  // Records are matched by kind, so both or neither are circular moves.
+  if (ma->via && mb->via) {
+    changed |= jointDeltas(ma->via->q_via, mb->via->q_via, a, tolerances, change.via_joint_deltas);
+    change.via_position_deviation =
+        (mb->via->X_RV.translation() - ma->via->X_RV.translation()).norm();
+    change.via_angle_deviation = angleBetween(ma->via->X_RV, mb->via->X_RV);
+    changed |= change.via_position_deviation > tolerances.position ||
+               change.via_angle_deviation > tolerances.angle;
+  }
   change.branch_changed = ma->branch != mb->branch;
   change.branch_a = ma->branch;
   change.branch_b = mb->branch;
@@ -114,8 +134,13 @@ MotionComparison compareMotionPrograms(const planner::Program& a, const planner:
     for (std::size_t j = 0; j < change.joint_deltas.size(); ++j) {
       keepLargest(result.largest_joint_delta[j], change.joint_deltas[j], change);
     }
+    for (std::size_t j = 0; j < change.via_joint_deltas.size(); ++j) {
+      keepLargest(result.largest_joint_delta[j], change.via_joint_deltas[j], change);
+    }
     keepLargest(result.largest_position_deviation, change.position_deviation, change);
     keepLargest(result.largest_angle_deviation, change.angle_deviation, change);
+    keepLargest(result.largest_position_deviation, change.via_position_deviation, change);
+    keepLargest(result.largest_angle_deviation, change.via_angle_deviation, change);
     result.branch_changes += change.branch_changed;
     if (changed) result.changes.push_back(change);
   }

@@ -17,6 +17,11 @@ struct RecordChange {
   std::vector<double> joint_deltas;
   double position_deviation = 0.0;  ///< |p_B − p_A| of the TCP [m]
   double angle_deviation = 0.0;     ///< rotation angle between the TCP orientations [rad]
+  /// For a matched pair of circular moves, the same three at the via point
+  /// (q_via and X_RV); empty and 0 for other records.
+  std::vector<double> via_joint_deltas;
+  double via_position_deviation = 0.0;  ///< [m]
+  double via_angle_deviation = 0.0;     ///< [rad]
   bool branch_changed = false;
   std::string branch_a, branch_b;
   /// The tool, the reference frame, or (for a process event) the parameter set differs.
@@ -48,13 +53,16 @@ struct ComparisonTolerances {
 /// the records of that kind and seam (transits count as the seam ""), so a
 /// seam that gained a waypoint shows one record added at its end and no
 /// shift of every later seam. Records of A without a match are `removed`,
-/// those of B `added`.
+/// those of B `added`. A matched pair of circular moves also compares its
+/// via points, with the same tolerances.
 struct MotionComparison {
   std::vector<int> removed;  ///< record numbers in A
   std::vector<int> added;    ///< record numbers in B
   /// Every matched pair that differs beyond the tolerances, in A's order.
   std::vector<RecordChange> changes;
-  int matched = 0;                                 ///< matched pairs, changed or not
+  int matched = 0;  ///< matched pairs, changed or not
+  /// Largest changes over targets and via points alike; the record pair
+  /// says where, the pair's RecordChange whether at a via.
   std::vector<LargestChange> largest_joint_delta;  ///< per joint, |q_B − q_A|
   LargestChange largest_position_deviation;        ///< [m]
   LargestChange largest_angle_deviation;           ///< [rad]

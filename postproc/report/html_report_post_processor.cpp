@@ -7,6 +7,7 @@
 
 #include "kinematics/common/input_error.hpp"
 #include "kinematics/common/number_text.hpp"
+#include "planner/program/motion_path.hpp"
 #include "postproc/file_quantities.hpp"
 #include "postproc/report/report_charts.hpp"
 #include "postproc/report/report_style.hpp"
@@ -264,6 +265,29 @@ class PageWriter {
     return out + "</section>\n";
   }
 
+  /// The row of a circular move's via point, before the move's own row: the
+  /// time it passes the via at a uniform path speed, the via joints and
+  /// position; the figures of a target stay empty.
+  std::string viaRow(const std::string& number, const MotionRecord& previous,
+                     const MotionRecord& motion, int columns) const {
+    std::string out = "<tr class=\"via\">" + element("td", number) +
+                      element("td", "via", "class=\"text\"") +
+                      element("td", motion.seam, "class=\"text\"") +
+                      element("td", quantities_.time.format(planner::viaPassingTime(
+                                        previous.X_RT.translation(), motion))) +
+                      element("td", "");
+    for (int j = 0; j < motion.via->q_via.size(); ++j) {
+      out += element("td", quantities_.joint(program_.metadata.joints[j].type)
+                               .format(motion.via->q_via[j]));
+    }
+    const Eigen::Vector3d p_RV = motion.via->X_RV.translation();
+    for (int k = 0; k < 3; ++k) out += element("td", quantities_.length.format(p_RV[k]));
+    const int used = 5 + static_cast<int>(motion.via->q_via.size()) + 3;
+    return out + element("td", "passed on the arc to record " + number,
+                         "class=\"text\" colspan=\"" + std::to_string(columns - used) + '"') +
+           "</tr>";
+  }
+
   std::string recordTable() const {
     const std::string& length = quantities_.length.unit;
     std::string out = "<section class=\"card\" id=\"records\"><details><summary>Motion records (" +
@@ -279,6 +303,7 @@ class PageWriter {
            "<th>sing. margin [" + quantities_.angle.unit + "]</th><th class=\"text\">tool / frame</th>"
            "<th class=\"text\">branch</th></tr>";
     const int columns = 5 + static_cast<int>(program_.metadata.joints.size()) + 9;
+    const MotionRecord* previous = nullptr;  // checkProgram(): a circular move has one
     for (std::size_t i = 0; i < program_.records.size(); ++i) {
       const std::string number = std::to_string(i + 1);
       const bool warned = std::any_of(warnings_.begin(), warnings_.end(), [&](const ReviewWarning& w) {
@@ -295,6 +320,8 @@ class PageWriter {
         continue;
       }
       const auto& motion = std::get<MotionRecord>(program_.records[i]);
+      if (motion.via) out += viaRow(number, *previous, motion, columns);
+      previous = &motion;
       out += "<tr id=\"record-" + number + '"' + (warned ? " class=\"warned\"" : "") + '>' +
              element("td", number) + element("td", toString(motion.kind), "class=\"text\"") +
              element("td", motion.seam, "class=\"text\"") +

@@ -159,6 +159,7 @@ std::string ReportCharts::speedChart(const ReportScope& scope, const std::string
   std::vector<std::vector<PlotPoint>> commanded;
   std::vector<std::vector<PlotPoint>> chord;
   Extremes extremes;
+  bool arcs = false;
   for (const std::size_t index : scope.motions) {
     const TimelineMotion& entry = timeline_[index];
     const planner::MotionRecord& motion = *entry.motion;
@@ -168,8 +169,10 @@ std::string ReportCharts::speedChart(const ReportScope& scope, const std::string
       extremes.offer(value);
     }
     // A joint move's chord says little about its real TCP path, so only
-    // linear moves are compared with their commanded speed.
-    if (entry.chord_speed && motion.kind == planner::MotionKind::kLinearMove) {
+    // linear and circular moves (whose chord_speed is the arc's) are
+    // compared with their commanded speed.
+    if (entry.chord_speed && motion.kind != planner::MotionKind::kJointMove) {
+      arcs |= motion.kind == planner::MotionKind::kCircularMove;
       const double value = *entry.chord_speed * scale;
       chord.push_back({{motion.start_time, value}, {entry.end_time, value}});
       extremes.offer(value);
@@ -190,7 +193,8 @@ std::string ReportCharts::speedChart(const ReportScope& scope, const std::string
   const QuantityFormat& format = quantities_.speed;
   return figure(plot, "min " + format.format(extremes.low / scale) + " · max " +
                           format.format(extremes.high / scale) + ' ' + format.unit +
-                          " · thick: commanded, thin: chord ÷ duration");
+                          (arcs ? " · thick: commanded, thin: path length (chord or arc) ÷ duration"
+                                : " · thick: commanded, thin: chord ÷ duration"));
 }
 
 std::string ReportCharts::clearanceChart(const ReportScope& scope, const std::string& id) const {

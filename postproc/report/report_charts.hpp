@@ -31,9 +31,9 @@ class ReportCharts {
   /// bands beyond the limits and within the warning margin of them, and a
   /// gauge of the whole joint range beside it.
   std::string jointChart(const ReportScope& scope, int joint, const std::string& id) const;
-  /// Commanded TCP speed and chord speed (straight distance ÷ duration) of
-  /// the linear moves, one step per motion, with a band above the
-  /// reduced-speed limit.
+  /// Commanded TCP speed and chord speed (straight distance, or arc length
+  /// for a circular move, ÷ duration) of the linear and circular moves, one
+  /// step per motion, with a band above the reduced-speed limit.
   std::string speedChart(const ReportScope& scope, const std::string& id) const;
   /// Clearance per motion (one step each), band below the warning threshold.
   std::string clearanceChart(const ReportScope& scope, const std::string& id) const;

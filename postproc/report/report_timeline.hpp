@@ -21,10 +21,15 @@ struct TimelineMotion {
   bool frame_known = false;  ///< the record's frame has a pose in ReportCell
   bool process_on = false;   ///< the process is on during this motion
   /// Straight-line distance from the previous target over the duration
-  /// [m/s]: a lower bound of the mean TCP speed (exact for a linear move).
+  /// [m/s]: a lower bound of the mean TCP speed (exact for a linear move);
+  /// for a circular move its arc length over the duration (exact too).
   /// Empty for the first motion, a zero duration, or when either target's
   /// frame has no known pose and the two frames differ.
   std::optional<double> chord_speed;
+  /// For a circular move: points along its arc in the cell frame C [m], from
+  /// the previous target to this one, at most 5° of arc apart (so that the
+  /// views draw the arc, not its chord); empty for other motions.
+  std::vector<Eigen::Vector3d> arc_C;
 };
 
 /// The motions of `program` in record order. Precondition: checkProgram() passed.

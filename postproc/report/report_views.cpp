@@ -85,6 +85,7 @@ std::string oneView(const ViewAxes& axes, const std::vector<TimelineMotion>& tim
   for (const TimelineMotion& entry : timeline) {
     path.push_back(flat(entry.p_CT));
     box.offer(path.back());
+    for (const Eigen::Vector3d& p_C : entry.arc_C) box.offer(flat(p_C));
   }
   std::optional<PlotPoint> base;
   if (cell.X_CB) {
@@ -128,7 +129,13 @@ std::string oneView(const ViewAxes& axes, const std::vector<TimelineMotion>& tim
     plot.text(*base, 10.0, 16.0, "arm base", "base-label");
   }
   for (std::size_t i = 1; i < timeline.size(); ++i) {
-    plot.polyline({path[i - 1], path[i]}, pathClass(timeline[i]));
+    if (timeline[i].arc_C.empty()) {
+      plot.polyline({path[i - 1], path[i]}, pathClass(timeline[i]));
+      continue;
+    }
+    std::vector<PlotPoint> arc;
+    for (const Eigen::Vector3d& p_C : timeline[i].arc_C) arc.push_back(flat(p_C));
+    plot.polyline(arc, pathClass(timeline[i]));
   }
   if (!path.empty()) {
     plot.dot(path.front(), 3.5, "path-start");

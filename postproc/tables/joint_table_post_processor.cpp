@@ -1,11 +1,13 @@
 #include "postproc/tables/joint_table_post_processor.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <optional>
 #include <variant>
 #include <vector>
 
 #include "kinematics/common/input_error.hpp"
+#include "planner/program/motion_path.hpp"
 #include "postproc/file_quantities.hpp"
 #include "postproc/pose_text.hpp"
 
@@ -39,7 +41,7 @@ struct MotionRow {
   kinematics::JointVector q;
   Eigen::Isometry3d X_RT = Eigen::Isometry3d::Identity();
   const MotionRecord* motion = nullptr;  ///< the record itself, or the one a sample belongs to
-  bool is_sample = false;
+  bool is_sample = false;  ///< an interpolated row or a via point: no blend or planner figures
 };
 
 class TableWriter {
@@ -110,10 +112,34 @@ class TableWriter {
   std::ostream& out_;
 };
 
-/// Rows on the global grid k·period strictly inside the motion, joints
-/// linear in time and the TCP pose linear / slerp between the previous
-/// target and this one: an approximation for plots, not the controller's
-/// own interpolation.
+/// Where a circular move passes its via point: the fraction of its arc
+/// length, for the via row's time and the joints of the sample rows.
+double viaFraction(const MotionRecord& from, const MotionRecord& to) {
+  const std::optional<planner::CircularArc> arc = planner::CircularArc::through(
+      from.X_RT.translation(), to.via->X_RV.translation(), to.X_RT.translation());
+  return arc->viaSweep() / arc->sweep();  // checkProgram() made sure the arc exists
+}
+
+/// The via row of circular move `to` (record `number`) that starts at `from`:
+/// the via's joints and pose, at the time the move passes it at a uniform
+/// speed along its arc.
+MotionRow viaRow(const MotionRecord& from, const MotionRecord& to, std::size_t number) {
+  MotionRow row;
+  row.record = number;
+  row.kind = "via";
+  row.time = planner::viaPassingTime(from.X_RT.translation(), to);
+  row.q = to.via->q_via;
+  row.X_RT = to.via->X_RV;
+  row.motion = &to;
+  row.is_sample = true;
+  return row;
+}
+
+/// Rows on the global grid k·period strictly inside the motion, at a
+/// uniform path speed: the TCP pose as the controller interpolates a linear
+/// or circular move (planner::interpolatedPose), linear / slerp for a joint
+/// move, whose real TCP path depends on the arm; joints linear in time (on a
+/// circular move through the via joints). An approximation for plots.
 std::vector<MotionRow> sampleRows(const MotionRecord& from, const MotionRecord& to,
                                   std::size_t number, double period) {
   std::vector<MotionRow> rows;
@@ -121,6 +147,8 @@ std::vector<MotionRow> sampleRows(const MotionRecord& from, const MotionRecord& 
   const double end = to.start_time + to.duration;
   const Eigen::Quaterniond q_from(from.X_RT.linear());
   const Eigen::Quaterniond q_to(to.X_RT.linear());
+  const bool circular = to.kind == planner::MotionKind::kCircularMove;
+  const double via_fraction = circular ? viaFraction(from, to) : 0.0;
   for (auto k = static_cast<long long>(std::floor(to.start_time / period)) + 1;
        static_cast<double>(k) * period < end; ++k) {
     const double time = static_cast<double>(k) * period;
@@ -130,11 +158,21 @@ std::vector<MotionRow> sampleRows(const MotionRecord& from, const MotionRecord& 
     row.record = number;
     row.kind = "sample";
     row.time = time;
-    row.q = from.q + s * (to.q - from.q);
-    row.X_RT = Eigen::Isometry3d::Identity();
-    row.X_RT.linear() = q_from.slerp(s, q_to).toRotationMatrix();
-    row.X_RT.translation() =
-        from.X_RT.translation() + s * (to.X_RT.translation() - from.X_RT.translation());
+    if (!circular) {
+      row.q = from.q + s * (to.q - from.q);
+    } else if (s <= via_fraction) {
+      row.q = from.q + (s / via_fraction) * (to.via->q_via - from.q);
+    } else {
+      row.q = to.via->q_via + ((s - via_fraction) / (1.0 - via_fraction)) * (to.q - to.via->q_via);
+    }
+    if (to.kind == planner::MotionKind::kJointMove) {
+      row.X_RT = Eigen::Isometry3d::Identity();
+      row.X_RT.linear() = q_from.slerp(s, q_to).toRotationMatrix();
+      row.X_RT.translation() =
+          from.X_RT.translation() + s * (to.X_RT.translation() - from.X_RT.translation());
+    } else {
+      row.X_RT = planner::interpolatedPose(from.X_RT, to, s);
+    }
     row.motion = &to;
     row.is_sample = true;
     rows.push_back(std::move(row));
@@ -162,11 +200,18 @@ void JointTablePostProcessor::write(const Program& program, const WriteOptions& 
       table.event(i + 1, std::get<ProcessEvent>(record));
       continue;
     }
+    std::vector<MotionRow> inside;
     if (previous && options.sample_period > 0.0) {
-      for (const MotionRow& row : sampleRows(*previous, *motion, i + 1, options.sample_period)) {
-        table.motion(row);
-      }
+      inside = sampleRows(*previous, *motion, i + 1, options.sample_period);
     }
+    if (motion->via) {
+      // checkProgram() made sure a circular move follows a motion.
+      MotionRow via = viaRow(*previous, *motion, i + 1);
+      const auto later = std::find_if(inside.begin(), inside.end(),
+                                      [&](const MotionRow& row) { return row.time > via.time; });
+      inside.insert(later, std::move(via));
+    }
+    for (const MotionRow& row : inside) table.motion(row);
     MotionRow row;
     row.record = i + 1;
     row.kind = toString(motion->kind);

@@ -45,11 +45,19 @@ struct Minimum {
 class SummaryBuilder {
  public:
   SummaryBuilder(const Program& program, const WriteOptions& options)
-      : program_(program), options_(options), quantities_(fileQuantities(program.metadata.units)) {}
+      : program_(program),
+        options_(options),
+        quantities_(fileQuantities(program.metadata.units)),
+        has_circular_moves_(std::any_of(
+            program.records.begin(), program.records.end(), [](const planner::ProgramRecord& r) {
+              const auto* motion = std::get_if<MotionRecord>(&r);
+              return motion && motion->kind == planner::MotionKind::kCircularMove;
+            })) {}
 
   /// Figures over the records whose seam is `seam`, or over all records.
   ordered_json figures(const std::optional<std::string>& seam) const {
     std::size_t waypoints = 0;
+    std::size_t circular_moves = 0;
     std::optional<double> first_time;
     double last_time = 0.0;
     double process_time = 0.0;
@@ -72,6 +80,7 @@ class SummaryBuilder {
       const auto& motion = std::get<MotionRecord>(record);
       if (seam && motion.seam != *seam) continue;
       ++waypoints;
+      if (motion.kind == planner::MotionKind::kCircularMove) ++circular_moves;
       if (!first_time) first_time = motion.start_time;
       last_time = std::max(last_time, motion.start_time + motion.duration);
       if (motion.clearance) clearance.offer(*motion.clearance, i + 1);
@@ -85,6 +94,9 @@ class SummaryBuilder {
     ordered_json result;
     if (seam) result["seam"] = *seam;
     result["waypoints"] = waypoints;
+    // Only in summaries of programs with arcs, so that those of programs
+    // without them stay byte for byte as before circular moves existed.
+    if (has_circular_moves_) result["circular_moves"] = circular_moves;
     const double span = seam ? last_time - first_time.value_or(0.0) : planner::cycleTime(program_);
     result[seam ? "time" : "cycle_time"] = rounded(quantities_.time, span);
     result["process_time"] = rounded(quantities_.time, process_time);
@@ -139,6 +151,7 @@ class SummaryBuilder {
   const Program& program_;
   const WriteOptions& options_;
   FileQuantities quantities_;
+  bool has_circular_moves_;
 };
 
 }  // namespace

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <fstream>
 #include <sstream>
+#include <stdexcept>
 #include <variant>
 
 #include "kinematics/common/input_error.hpp"
@@ -20,10 +21,10 @@ using planner::Program;
 using Section = ProgramTemplate::Section;
 
 constexpr std::array<const char*, ProgramTemplate::kSectionCount> kSectionNames = {
-    "header", "joint-move", "linear-move", "process-on", "process-off", "footer"};
+    "header", "joint-move", "linear-move", "circular-move", "process-on", "process-off", "footer"};
 constexpr int kMaxDecimals = 12;
 
-enum class Scope { kAnywhere, kHeader, kRecord, kMotion, kProcess };
+enum class Scope { kAnywhere, kHeader, kRecord, kMotion, kVia, kProcess };
 
 struct PlaceholderSpec {
   const char* name;
@@ -49,10 +50,17 @@ constexpr PlaceholderSpec kPlaceholders[] = {
     {"joint_speed", Scope::kMotion, true},    {"blend", Scope::kMotion, true},
     {"clearance", Scope::kMotion, true},      {"singularity_margin", Scope::kMotion, true},
     {"time", Scope::kProcess, true},          {"set", Scope::kProcess, false},
+    {"via_joints", Scope::kVia, true},        {"via_x", Scope::kVia, true},
+    {"via_y", Scope::kVia, true},             {"via_z", Scope::kVia, true},
+    {"via_qw", Scope::kVia, true},            {"via_qx", Scope::kVia, true},
+    {"via_qy", Scope::kVia, true},            {"via_qz", Scope::kVia, true},
 };
 
+constexpr std::string_view kViaPrefix = "via_";
+
 bool isMotionSection(Section section) {
-  return section == Section::kJointMove || section == Section::kLinearMove;
+  return section == Section::kJointMove || section == Section::kLinearMove ||
+         section == Section::kCircularMove;
 }
 
 bool isProcessSection(Section section) {
@@ -65,6 +73,7 @@ bool allowedIn(Scope scope, Section section) {
     case Scope::kHeader: return section == Section::kHeader;
     case Scope::kRecord: return isMotionSection(section) || isProcessSection(section);
     case Scope::kMotion: return isMotionSection(section);
+    case Scope::kVia: return section == Section::kCircularMove;
     case Scope::kProcess: return isProcessSection(section);
   }
   return false;
@@ -79,8 +88,13 @@ std::optional<int> jointIndex(const std::string& name) {
   return name[1] - '1';
 }
 
+bool isViaName(const std::string& name) { return name.compare(0, kViaPrefix.size(), kViaPrefix) == 0; }
+
 std::optional<PlaceholderSpec> findPlaceholder(const std::string& name) {
   if (jointIndex(name)) return PlaceholderSpec{"j", Scope::kMotion, true};
+  if (isViaName(name) && jointIndex(name.substr(kViaPrefix.size()))) {
+    return PlaceholderSpec{"via_j", Scope::kVia, true};
+  }
   for (const PlaceholderSpec& spec : kPlaceholders) {
     if (name == spec.name) return spec;
   }
@@ -90,7 +104,8 @@ std::optional<PlaceholderSpec> findPlaceholder(const std::string& name) {
 std::string placeholderList() {
   std::string list;
   for (const PlaceholderSpec& spec : kPlaceholders) list += std::string(spec.name) + ", ";
-  return list + "j1 to j" + std::to_string(kinematics::kMaxJoints);
+  const std::string last = std::to_string(kinematics::kMaxJoints);
+  return list + "j1 to j" + last + ", via_j1 to via_j" + last;
 }
 
 class TemplateParser {
@@ -233,7 +248,6 @@ class Renderer {
                           int line) const {
     const std::string& name = segment.text;
     const FileQuantities& q = context_.quantities;
-    const std::vector<planner::ProgramJoint>& joints = context_.program.metadata.joints;
     const std::string record = "record " + std::to_string(context_.number) + " (" +
                                toString(motion.kind) + ")";
     if (name == "seam") return motion.seam;
@@ -244,29 +258,19 @@ class Renderer {
     if (name == "duration") return number(segment, motion.duration, q.time);
     if (name == "end") return number(segment, motion.start_time + motion.duration, q.time);
     if (name == "blend") return number(segment, motion.blend_radius, q.length);
-    if (name == "joints") {
-      std::string list;
-      for (int i = 0; i < motion.q.size(); ++i) {
-        list += (i > 0 ? "," : "") + number(segment, motion.q[i], q.joint(joints[i].type));
+    if (isViaName(name)) {
+      // Only the circular-move section takes via placeholders, and
+      // checkProgram() made sure every circular move has its via point.
+      const std::string via_name = name.substr(kViaPrefix.size());
+      if (std::optional<std::string> via =
+              pointValue(segment, via_name, motion.via->q_via, motion.via->X_RV, line)) {
+        return *via;
       }
-      return list;
+      throw std::logic_error("the template parser let through the placeholder [[" + name + "]]");
     }
-    if (const std::optional<int> index = jointIndex(name)) {
-      if (*index >= motion.q.size()) {
-        fail(line, "[[" + name + "]] names joint " + std::to_string(*index + 1) + " but the arm has " +
-                       std::to_string(motion.q.size()) + " joints");
-      }
-      return number(segment, motion.q[*index], q.joint(joints[*index].type));
+    if (std::optional<std::string> point = pointValue(segment, name, motion.q, motion.X_RT, line)) {
+      return *point;
     }
-    const Eigen::Vector3d p_RT = motion.X_RT.translation();
-    if (name == "x") return number(segment, p_RT.x(), q.length);
-    if (name == "y") return number(segment, p_RT.y(), q.length);
-    if (name == "z") return number(segment, p_RT.z(), q.length);
-    const Eigen::Quaterniond orientation = canonicalQuaternion(motion.X_RT);
-    if (name == "qw") return number(segment, orientation.w(), q.quaternion);
-    if (name == "qx") return number(segment, orientation.x(), q.quaternion);
-    if (name == "qy") return number(segment, orientation.y(), q.quaternion);
-    if (name == "qz") return number(segment, orientation.z(), q.quaternion);
     const bool tcp = motion.speed.kind == planner::SpeedKind::kTcpSpeed;
     if (name == "tcp_speed" || name == "joint_speed") {
       if (tcp != (name == "tcp_speed")) {
@@ -282,14 +286,50 @@ class Renderer {
     return number(segment, *measured, name == "clearance" ? q.length : q.angle);
   }
 
+  /// joints, j1 … j8, x, y, z, qw, qx, qy, qz of one point of the path (the
+  /// target or the via); nullopt for any other name.
+  std::optional<std::string> pointValue(const ProgramTemplate::Segment& segment,
+                                        const std::string& name, const kinematics::JointVector& q_point,
+                                        const Eigen::Isometry3d& X_RP, int line) const {
+    const FileQuantities& q = context_.quantities;
+    const std::vector<planner::ProgramJoint>& joints = context_.program.metadata.joints;
+    if (name == "joints") {
+      std::string list;
+      for (int i = 0; i < q_point.size(); ++i) {
+        list += (i > 0 ? "," : "") + number(segment, q_point[i], q.joint(joints[i].type));
+      }
+      return list;
+    }
+    if (const std::optional<int> index = jointIndex(name)) {
+      if (*index >= q_point.size()) {
+        fail(line, "[[" + segment.text + "]] names joint " + std::to_string(*index + 1) +
+                       " but the arm has " + std::to_string(q_point.size()) + " joints");
+      }
+      return number(segment, q_point[*index], q.joint(joints[*index].type));
+    }
+    const Eigen::Vector3d p_RP = X_RP.translation();
+    if (name == "x") return number(segment, p_RP.x(), q.length);
+    if (name == "y") return number(segment, p_RP.y(), q.length);
+    if (name == "z") return number(segment, p_RP.z(), q.length);
+    const Eigen::Quaterniond orientation = canonicalQuaternion(X_RP);
+    if (name == "qw") return number(segment, orientation.w(), q.quaternion);
+    if (name == "qx") return number(segment, orientation.x(), q.quaternion);
+    if (name == "qy") return number(segment, orientation.y(), q.quaternion);
+    if (name == "qz") return number(segment, orientation.z(), q.quaternion);
+    return std::nullopt;
+  }
+
   const std::string& file_;
   RenderContext& context_;
 };
 
 Section sectionFor(const planner::ProgramRecord& record) {
   if (const auto* motion = std::get_if<MotionRecord>(&record)) {
-    return motion->kind == planner::MotionKind::kJointMove ? Section::kJointMove
-                                                           : Section::kLinearMove;
+    switch (motion->kind) {
+      case planner::MotionKind::kJointMove: return Section::kJointMove;
+      case planner::MotionKind::kLinearMove: return Section::kLinearMove;
+      case planner::MotionKind::kCircularMove: return Section::kCircularMove;
+    }
   }
   return std::get<ProcessEvent>(record).kind == planner::ProcessEventKind::kStart
              ? Section::kProcessOn
@@ -319,8 +359,8 @@ ProgramTemplate ProgramTemplate::parse(std::string_view text, const std::string&
       const auto found = std::find(kSectionNames.begin(), kSectionNames.end(), name);
       if (found == kSectionNames.end()) {
         parser.fail(number, "unknown section '@@ " + name +
-                                "'; expected header, joint-move, linear-move, process-on, "
-                                "process-off or footer");
+                                "'; expected header, joint-move, linear-move, circular-move, "
+                                "process-on, process-off or footer");
       }
       section = static_cast<Section>(found - kSectionNames.begin());
       auto& lines = result.sections_[static_cast<int>(*section)];

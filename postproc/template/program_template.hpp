@@ -15,9 +15,10 @@ namespace tw::postproc {
 /// language; the syntax is specified in postproc/FORMAT.md ("Templates").
 ///
 /// In short: `@@ <section>` starts one of the sections header, joint-move,
-/// linear-move, process-on, process-off, footer; `@@#` starts a comment
+/// linear-move, circular-move, process-on, process-off, footer; `@@#` starts a comment
 /// line; in a section every line is copied as it stands except for
-/// placeholders `[[name]]` and `[[name;D]]` (a number with D decimals). The
+/// placeholders `[[name]]` and `[[name;D]]` (a number with D decimals;
+/// `via_...` placeholders only in the circular-move section). The
 /// header must hold `[[caution]]`, which repeats its line once per line of
 /// the safety caution.
 ///
@@ -39,8 +40,16 @@ class ProgramTemplate {
   /// and the record. Nothing reaches `out` when rendering fails.
   void render(const planner::Program& program, std::ostream& out) const;
 
-  enum class Section { kHeader, kJointMove, kLinearMove, kProcessOn, kProcessOff, kFooter };
-  static constexpr int kSectionCount = 6;
+  enum class Section {
+    kHeader,
+    kJointMove,
+    kLinearMove,
+    kCircularMove,
+    kProcessOn,
+    kProcessOff,
+    kFooter
+  };
+  static constexpr int kSectionCount = 7;
 
   /// One piece of a template line: literal text or a placeholder.
   struct Segment {

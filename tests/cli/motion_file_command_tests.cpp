@@ -4,6 +4,8 @@
 #include <filesystem>
 #include <nlohmann/json.hpp>
 #include <sstream>
+#include <variant>
+#include <vector>
 
 #include "postproc/atomic_file.hpp"
 #include "postproc/motion_text/motion_text_post_processor.hpp"
@@ -11,6 +13,7 @@
 #include "postproc/post_processor_registry.hpp"
 #include "postproc/tables/joint_table_post_processor.hpp"
 #include "tests/cli/cli_test_support.hpp"
+#include "tests/postproc/sample_program.hpp"
 #include "tests/postproc/two_programs.hpp"
 
 namespace tw::cli {
@@ -139,6 +142,43 @@ TEST_CASE("table prints one row per record, marks margins, colours only when ask
   CHECK_THAT(metres.output, Catch::Contains("x_m") && Catch::Contains("0.800000"));
   CHECK_THAT(metres.output, !Catch::Contains("axis_1"));
   CHECK(runTool("table " + quoted(a) + " --columns record,bogus").exit_code == 2);
+}
+
+TEST_CASE("table shows circular moves by kind, each after a row for its via point",
+          "[cli][table]") {
+  const std::string arcs = writeMotionText("table_arcs.twm", postproc::test::arcProgram());
+  const test::ToolRun run = runTool("table " + quoted(arcs) + " --columns record,kind,time,tcp");
+  CAPTURE(run.output);
+  REQUIRE(run.exit_code == 0);
+  // Header, 10 records, 2 via rows, the legend line.
+  CHECK(countLines(run.output) == 14);
+  std::istringstream lines(run.output);
+  std::vector<std::string> rows;
+  for (std::string line; std::getline(lines, line);) rows.push_back(line);
+  // Rows 5 and 6 after the header: record 5's via (passed at 7.4 + 7.854 / 2 s
+  // at x = 975 mm, sample data), then record 5 itself.
+  CHECK_THAT(rows[5], Catch::Matches(R"(\s+5\s+via\s+11\.3270\s+975\.000\s+25\.000\s+410\.000.*)"));
+  CHECK_THAT(rows[6], Catch::Matches(R"(\s+5\s+circular-move\s+15\.2540\s+950\.000\s+50\.000.*)"));
+}
+
+TEST_CASE("compare reports a moved via point", "[cli][compare]") {
+  const planner::Program original = postproc::test::arcProgram();
+  planner::Program moved = original;
+  std::get<planner::MotionRecord>(moved.records[4]).via->X_RV.translation().x() += 0.0004;
+  const std::string a = writeMotionText("compare_arcs_a.twm", original);
+  const std::string b = writeMotionText("compare_arcs_b.twm", moved);
+  const test::ToolRun text = runTool("compare " + quoted(a) + " " + quoted(b) + " --records");
+  CAPTURE(text.output);
+  CHECK(text.exit_code == 0);
+  // The planted 0.4 mm at record 5's via.
+  CHECK_THAT(text.output, Catch::Contains("largest TCP deviation: 0.400 mm (A 5 / B 5)"));
+  CHECK_THAT(text.output, Catch::Contains("via: 0.0000 0.0000 0.0000 0.0000 0.0000 0.0000  TCP 0.400 mm"));
+  const test::ToolRun json = runTool("compare " + quoted(a) + " " + quoted(b) + " --json");
+  REQUIRE(json.exit_code == 0);
+  const nlohmann::json parsed = nlohmann::json::parse(json.output);
+  REQUIRE(parsed["changes"].size() == 1);
+  CHECK(parsed["changes"][0]["via_tcp_position_deviation"] == 0.4);
+  CHECK(parsed["changes"][0]["tcp_position_deviation"] == 0.0);
 }
 
 TEST_CASE("table --csv writes the joint-table post-processor's file", "[cli][table]") {

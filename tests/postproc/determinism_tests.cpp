@@ -18,12 +18,13 @@ class CommaNumbers : public std::numpunct<char> {
   std::string do_grouping() const override { return "\3"; }
 };
 
-std::string written(const PostProcessor& post_processor, const std::locale& locale) {
+std::string written(const PostProcessor& post_processor, const tw::planner::Program& program,
+                    const std::locale& locale) {
   WriteOptions options;
   options.template_file = std::string(TW_SOURCE_DIR) + "/samples/templates/stepcard.twt";
   std::ostringstream out;
   out.imbue(locale);
-  post_processor.write(test::sampleProgram(), options, out);
+  post_processor.write(program, options, out);
   return out.str();
 }
 
@@ -35,16 +36,19 @@ TEST_CASE("Every post-processor writes the same bytes whatever the stream and gl
   registerBuiltInPostProcessors(registry);
   REQUIRE_FALSE(registry.empty());
   const std::locale comma(std::locale::classic(), new CommaNumbers);
+  const bool arcs = GENERATE(false, true);  // the sample program, then the one with arcs
+  CAPTURE(arcs);
+  const tw::planner::Program program = arcs ? test::arcProgram() : test::sampleProgram();
   for (const std::string& name : registry.names()) {
     CAPTURE(name);
     const PostProcessor& post_processor = registry.get(name);
-    const std::string plain = written(post_processor, std::locale::classic());
+    const std::string plain = written(post_processor, program, std::locale::classic());
     REQUIRE_FALSE(plain.empty());
     const std::locale previous = std::locale::global(comma);
-    const std::string with_comma = written(post_processor, comma);
+    const std::string with_comma = written(post_processor, program, comma);
     std::locale::global(previous);
     CHECK(with_comma == plain);
     // Writing twice gives the same bytes: no clock, no hidden state.
-    CHECK(written(post_processor, std::locale::classic()) == plain);
+    CHECK(written(post_processor, program, std::locale::classic()) == plain);
   }
 }

@@ -1,5 +1,6 @@
 #include <catch2/catch.hpp>
 #include <memory>
+#include <variant>
 #include <sstream>
 
 #include "kinematics/common/input_error.hpp"
@@ -68,5 +69,36 @@ TEST_CASE("Every built-in post-processor describes itself and refuses a broken p
     CHECK_THROWS_AS(post_processor.write(broken, options, out), tw::InputError);
     // Nothing reaches the stream when the program is refused.
     CHECK(out.str().empty());
+  }
+}
+
+TEST_CASE("Circular moves and blends reach every built-in post-processor", "[registry]") {
+  PostProcessorRegistry registry;
+  registerBuiltInPostProcessors(registry);
+  REQUIRE_FALSE(registry.empty());
+  const tw::planner::Program arcs = test::arcProgram();
+  // The same program with every circular move written as a linear move to
+  // the same target: a writer that ignored the arcs would give equal output.
+  tw::planner::Program straight = arcs;
+  int turned = 0;
+  for (tw::planner::ProgramRecord& record : straight.records) {
+    auto* motion = std::get_if<tw::planner::MotionRecord>(&record);
+    if (motion == nullptr || motion->kind != tw::planner::MotionKind::kCircularMove) continue;
+    motion->kind = tw::planner::MotionKind::kLinearMove;
+    motion->via.reset();
+    ++turned;
+  }
+  REQUIRE(turned == 2);
+  WriteOptions options;
+  options.template_file = std::string(TW_SOURCE_DIR) + "/samples/templates/stepcard.twt";
+  for (const std::string& name : registry.names()) {
+    CAPTURE(name);
+    const PostProcessor& post_processor = registry.get(name);
+    std::ostringstream with_arcs;
+    std::ostringstream without_arcs;
+    REQUIRE_NOTHROW(post_processor.write(arcs, options, with_arcs));
+    REQUIRE_NOTHROW(post_processor.write(straight, options, without_arcs));
+    CHECK_FALSE(with_arcs.str().empty());
+    CHECK(with_arcs.str() != without_arcs.str());
   }
 }

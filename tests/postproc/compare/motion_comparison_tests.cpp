@@ -2,6 +2,7 @@
 
 #include "kinematics/common/angles.hpp"
 #include "postproc/compare/motion_comparison.hpp"
+#include "tests/postproc/sample_program.hpp"
 #include "tests/postproc/two_programs.hpp"
 
 namespace tw::postproc {
@@ -62,6 +63,35 @@ TEST_CASE("Changes within the tolerances do not count", "[compare]") {
   CHECK(result.changes[0].record_a == 5);
   // The largest values are reported whether or not they count as changes.
   CHECK(result.largest_joint_delta[0].value == Approx(0.5 * kDeg).epsilon(1e-12));
+}
+
+TEST_CASE("The comparison of two arc programs compares their via points too", "[compare]") {
+  const planner::Program a = test::arcProgram();
+  planner::Program b = a;
+  // Record 5 is the half circle (sample data): move its via 0.4 mm outwards
+  // and turn its via axis 6 by 0.7°; its target stays where it was.
+  planner::ViaPoint& via = *std::get<planner::MotionRecord>(b.records[4]).via;
+  via.X_RV.translation().x() += 0.0004;
+  via.q_via[5] += 0.7 * kDeg;
+  const MotionComparison result = compareMotionPrograms(a, b, "b.twm", ComparisonTolerances{});
+  CHECK_FALSE(result.equal);
+  CHECK(result.matched == static_cast<int>(a.records.size()));
+  REQUIRE(result.changes.size() == 1);
+  const RecordChange& change = result.changes[0];
+  CHECK(change.record_a == 5);
+  CHECK(change.position_deviation == 0.0);
+  // Planted values; the arithmetic only rounds.
+  CHECK(change.via_position_deviation == Approx(0.0004).epsilon(1e-9));
+  REQUIRE(change.via_joint_deltas.size() == 6);
+  CHECK(change.via_joint_deltas[5] == Approx(0.7 * kDeg).epsilon(1e-12));
+  CHECK(change.via_joint_deltas[0] == 0.0);
+  // The largest changes cover via points as well as targets.
+  CHECK(result.largest_joint_delta[5].value == Approx(0.7 * kDeg).epsilon(1e-12));
+  CHECK(result.largest_joint_delta[5].record_a == 5);
+  CHECK(result.largest_position_deviation.value == Approx(0.0004).epsilon(1e-9));
+  // Other records carry no via figures.
+  const MotionComparison same = compareMotionPrograms(a, a, "a.twm", ComparisonTolerances{});
+  CHECK(same.equal);
 }
 
 TEST_CASE("Programs for different joints cannot be compared", "[compare]") {

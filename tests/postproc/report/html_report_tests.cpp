@@ -419,3 +419,68 @@ TEST_CASE("The demo report is byte-identical on repeat and under a decimal-comma
   // Keep the sample page for a look in a browser (DEVELOPERS.md).
   test::writeWholeFile(std::string(TW_TEST_OUTPUT_DIR) + "/sample_report.html", plain);
 }
+
+TEST_CASE("The review report draws circular moves as arcs and lists their via points",
+          "[html-report]") {
+  const Program program = test::arcProgram();
+  const std::string text = reportText(program);
+  // Kept for a look in a browser.
+  test::writeWholeFile(std::string(TW_TEST_OUTPUT_DIR) + "/arc_program_report.html", text);
+  const ParsedReport report(text);
+
+  const auto views = elementsWithClass(*report.root, "view");
+  REQUIRE(views.size() == 3);
+  const tinyxml2::XMLElement* top = views.front();
+  REQUIRE(attribute(*top, "data-view") == "top");
+  std::vector<std::vector<std::pair<double, double>>> paths;
+  forEach(*top, [&](const tinyxml2::XMLElement& element) {
+    if (std::string(element.Name()) != "polyline") return;
+    if (!hasClass(element, "path-process") && !hasClass(element, "path-seam") &&
+        !hasClass(element, "path-air")) {
+      return;
+    }
+    std::vector<std::pair<double, double>> points;
+    std::istringstream pairs(attribute(element, "points"));
+    std::string pair;
+    while (pairs >> pair) {
+      const std::size_t comma = pair.find(',');
+      points.emplace_back(std::stod(pair.substr(0, comma)), std::stod(pair.substr(comma + 1)));
+    }
+    paths.push_back(points);
+  });
+  // One path per motion after the first (eight motions, arcProgram()).
+  REQUIRE(paths.size() == 7);
+  // The half circle (record 5, the third path) sweeps 180° in steps of at
+  // most 5°: 36 segments; the three-quarter circle (record 9, the sixth)
+  // 270°: 54 segments; every other motion is one straight segment.
+  CHECK(paths[2].size() == 37);
+  CHECK(paths[5].size() == 55);
+  for (const std::size_t straight : {0, 1, 3, 4, 6}) CHECK(paths[straight].size() == 2);
+  // Seen from +z the half circle is a true half circle whose first and last
+  // points are a diameter apart: every point is half that distance from
+  // their midpoint. Pixel coordinates have one decimal (±0.05 px each), so
+  // distances agree to 0.15 px.
+  const auto& half = paths[2];
+  const double cx = (half.front().first + half.back().first) / 2.0;
+  const double cy = (half.front().second + half.back().second) / 2.0;
+  const double radius = std::hypot(half.front().first - cx, half.front().second - cy);
+  REQUIRE(radius > 10.0);  // large enough on the page for the check to mean something
+  for (const auto& point : half) {
+    CHECK(std::hypot(point.first - cx, point.second - cy) == Approx(radius).margin(0.15));
+  }
+
+  // The record table: a via row before each circular move's row.
+  const auto via_rows = elementsWithClass(*report.root, "via");
+  REQUIRE(via_rows.size() == 2);
+  const tinyxml2::XMLElement* after = via_rows[0]->NextSiblingElement("tr");
+  REQUIRE(after != nullptr);
+  CHECK(attribute(*after, "id") == "record-5");
+  const std::string via_text = allText(*via_rows[0]);
+  // The half circle's via (sample data): passed at 7.4 + 7.854 / 2 s, at
+  // (975, 25, 410) mm.
+  CHECK_THAT(via_text, Catch::Contains("11.3270") && Catch::Contains("975.000") &&
+                           Catch::Contains("via"));
+  CHECK_THAT(allText(*after), Catch::Contains("circular-move"));
+  // The speed chart compares arcs against their arc length and says so.
+  CHECK_THAT(allText(*report.root), Catch::Contains("path length (chord or arc) ÷ duration"));
+}

@@ -1,4 +1,5 @@
 #include <catch2/catch.hpp>
+#include <cmath>
 #include <map>
 #include <sstream>
 #include <vector>
@@ -127,6 +128,67 @@ TEST_CASE("Sampled joint-table rows interpolate between records", "[joint-table]
     CHECK(time >= previous);
     previous = time;
   }
+}
+
+TEST_CASE("The joint table of the arc program matches the golden file", "[joint-table]") {
+  // Golden file: tests/postproc/data/arc_program.csv, read line by line
+  // against arcProgram() when it was committed; the via rows are checked in
+  // the next test case.
+  CHECK(jointTable(test::arcProgram()) == test::readDataFile("arc_program.csv"));
+}
+
+TEST_CASE("A circular move has a via row before its own, at its passing time", "[joint-table]") {
+  const auto rows = parseTable(jointTable(test::arcProgram()));
+  // Ten records and two via rows.
+  REQUIRE(rows.size() == 12);
+  const auto& via = rows[4];
+  CHECK(via.at("record") == "5");
+  CHECK(via.at("kind") == "via");
+  // Half circle from 7.4 s for 7.854 s with the via at half its sweep:
+  // 7.4 + 3.927 s (sample data, hand arithmetic).
+  CHECK(via.at("time_s") == "11.3270");
+  CHECK(via.at("duration_s").empty());
+  CHECK(via.at("x_mm") == "975.000");
+  CHECK(via.at("y_mm") == "25.000");
+  CHECK(via.at("axis_6_deg") == "36.0000");
+  CHECK(via.at("axis_6_margin_deg") == "324.0000");  // 360° − 36°
+  CHECK(via.at("tcp_speed_mm_s") == "10.000");
+  CHECK(via.at("blend_mm").empty());
+  CHECK(via.at("clearance_mm").empty());
+  CHECK(rows[5].at("kind") == "circular-move");
+  CHECK(rows[5].at("record") == "5");
+  CHECK(rows[5].at("blend_mm") == "2.000");
+  // The three-quarter circle passes its via at 180° of its 270° sweep:
+  // 20.754 + 2.3562 · 2/3 s (hand arithmetic).
+  CHECK(rows[9].at("kind") == "via");
+  CHECK(rows[9].at("time_s") == "22.3248");
+  CHECK(rows[9].at("z_mm") == "560.000");
+}
+
+TEST_CASE("Sampled rows of a circular move lie on its circle, in time order with the via",
+          "[joint-table]") {
+  const auto rows = parseTable(jointTable(test::arcProgram(), 1.0));
+  std::vector<std::map<std::string, std::string>> inside;
+  for (const auto& row : rows) {
+    if (row.at("record") == "5" && row.at("kind") != "circular-move") inside.push_back(row);
+  }
+  // 8 … 15 s lie strictly inside 7.4–15.254 s, and the via at 11.327 s.
+  REQUIRE(inside.size() == 9);
+  CHECK(inside[4].at("kind") == "via");
+  for (std::size_t i = 0; i < inside.size(); ++i) {
+    CAPTURE(i, inside[i].at("time_s"));
+    // Circle of radius 25 mm about (950, 25, 410) mm (sample data); printed
+    // positions round by 0.0005 mm per coordinate, so 0.001 mm covers them.
+    const double dx = std::stod(inside[i].at("x_mm")) - 950.0;
+    const double dy = std::stod(inside[i].at("y_mm")) - 25.0;
+    CHECK(std::hypot(dx, dy) == Approx(25.0).margin(0.001));
+    CHECK(inside[i].at("z_mm") == "410.000");
+    if (i > 0) CHECK(std::stod(inside[i].at("time_s")) > std::stod(inside[i - 1].at("time_s")));
+  }
+  // 9 s is (9 − 7.4) / 7.854 of the arc: 36.67° from the start about the
+  // centre, x = 950 + 25 sin(36.67°) = 964.930 mm (hand arithmetic).
+  CHECK(inside[1].at("time_s") == "9.0000");
+  CHECK(std::stod(inside[1].at("x_mm")) == Approx(964.930).margin(0.001));
 }
 
 TEST_CASE("The joint table refuses a sample period below 1 ms", "[joint-table]") {

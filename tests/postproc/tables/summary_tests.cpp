@@ -96,3 +96,14 @@ TEST_CASE("Figures the planner did not measure are null in the summary", "[summa
   CHECK(summary.at("seams").at(0).at("min_singularity_margin").is_null());
   CHECK(summary.at("total").at("tightest_joint_limit_margin").at("joint") == "axis_5");
 }
+
+TEST_CASE("The summary counts circular moves, and only when the program has any", "[summary]") {
+  const json arcs = json::parse(summaryText(test::arcProgram(), WriteOptions{}));
+  // arcProgram(): two circular moves, both in seam "ring" (sample data).
+  CHECK(arcs.at("total").at("circular_moves") == 2);
+  REQUIRE(arcs.at("seams").size() == 1);
+  CHECK(arcs.at("seams")[0].at("circular_moves") == 2);
+  CHECK(arcs.at("total").at("waypoints") == 8);
+  const json plain = json::parse(summaryText(test::sampleProgram(), WriteOptions{}));
+  CHECK_FALSE(plain.at("total").contains("circular_moves"));
+}
