@@ -11,9 +11,12 @@
 #include "kinematics/forward_kinematics.hpp"
 #include "kinematics/singularity.hpp"
 #include "planner/cell/cell_collision_world.hpp"
+#include "planner/motion/move_following.hpp"
+#include "planner/motion/seam_moves.hpp"
 #include "planner/program/sha256.hpp"
 #include "planner/timing/joint_trajectory.hpp"
 #include "planner/timing/process_move_timing.hpp"
+#include "planner/timing/seam_move_timing.hpp"
 
 namespace tw::planner {
 namespace {
@@ -100,6 +103,21 @@ const Tool& toolOf(const Job& job, const std::string& name) {
   return *tool;
 }
 
+/// The seam solver's limits for following a path, so that the compacted
+/// moves keep what the solved steps kept.
+FollowLimits followLimits(const SeamSolverOptions& solver) {
+  FollowLimits limits;
+  limits.wrist_hard_margin = solver.wrist_hard_margin;
+  limits.joint_rate = solver.joint_rate;
+  limits.joint_step_floor = solver.joint_step_floor;
+  limits.rotation_lever = solver.rotation_lever;
+  limits.continuity_position = solver.continuity_position;
+  limits.continuity_angle = solver.continuity_angle;
+  limits.max_step = solver.interpolation_step;
+  limits.max_angle_step = solver.interpolation_angle;
+  return limits;
+}
+
 /// The phases after the seams are solved, in the order a program runs them:
 /// start at home, then for each seam a transit to its approach and the seam
 /// itself, then the transit home; finish() adds the warnings and checks the
@@ -113,6 +131,9 @@ class ProgramAssembler {
         result_(result),
         world_(buildCellCollisionWorld(job.cell, tool, transitCollisionOptions(job, options))),
         workspace_(world_),
+        seam_world_(buildCellCollisionWorld(job.cell, tool, options.collision)),
+        seam_workspace_(seam_world_),
+        X_BW_(job.cell.frames.X_W(job.cell.arm_frame).inverse()),
         transit_planner_(world_),
         seed_(options.seed.value_or(job.transit.seed)),
         builder_(job, options, program_) {
@@ -160,28 +181,69 @@ class ProgramAssembler {
     return true;
   }
 
-  /// The approach, the seam's waypoints with its process events, and the
-  /// retract, as linear moves from the transit's end.
-  void runSeam(const SolvedSeam& seam, const JobTask& task) {
+  /// The approach, the seam's waypoints as the fewest linear and circular
+  /// moves (compactSolvedSeam, each re-checked as the controller
+  /// interpolates it, timed by timeSeamMoves) with the process events at
+  /// their points, and the retract. False (and the seam reported) when a
+  /// step between neighbouring waypoints fails as the controller drives it.
+  bool runSeam(const SolvedSeam& seam, const JobTask& task) {
     const std::string named_set =
         std::visit([](const auto& spec) { return spec.parameter_set; }, task);
     const std::string parameter_set = named_set.empty() ? toString(seam.process) : named_set;
     const std::string branch = seam.branch.toString();
-    const SolvedPose* previous = &seam.approach;
+
+    FollowSetting follow;
+    follow.world = &seam_world_;
+    follow.X_BR = X_BW_ * job_.cell.frames.X_W(seam.frame);
+    follow.X_FT = tool_.X_FT;
+    follow.branch_index = seam.branch.index();
+    MoveFollower follower(follow, followLimits(options_.solver));
+    auto compacted = compactSolvedSeam(seam, options_.moves, follower, seam_workspace_);
+    if (const SeamMoveFailure* failure = std::get_if<SeamMoveFailure>(&compacted)) {
+      result_.move_failures.push_back({seam.name, failure->waypoint, failure->failure});
+      return false;
+    }
+    const std::vector<SeamMove>& moves = std::get<std::vector<SeamMove>>(compacted);
+    std::vector<double> speeds;
+    for (const SeamMove& move : moves) speeds.push_back(speedOf(seam, move));
+    ProcessSpeed programmed;
+    programmed.orientation_speed = options_.orientation_speed;
+    const SeamMoveTiming timing = timeSeamMoves(job_.cell.arm, moves, speeds, programmed);
+    for (const LoweredSpeed& lowered : timing.lowered) {
+      result_.speed_limits.push_back({seam.name, moves[lowered.segment].move.end, lowered});
+    }
+
+    addLinearMove(seam, branch, seam.approach, seam.waypoints.front(), options_.approach_speed, 0);
     bool process_on = false;
-    for (std::size_t i = 0; i < seam.waypoints.size(); ++i) {
-      const SolvedPose& pose = seam.waypoints[i];
-      const double speed = i == 0 ? options_.approach_speed : pose.speed;
-      addLinearMove(seam, branch, *previous, pose, speed, static_cast<int>(i));
-      previous = &pose;
-      if (pose.process_on != process_on) {
-        builder_.addEvent(pose.process_on ? ProcessEventKind::kStart : ProcessEventKind::kStop,
-                          parameter_set, seam.name);
-        process_on = pose.process_on;
+    const auto switch_process = [&](const SolvedPose& pose) {
+      if (pose.process_on == process_on) return;
+      builder_.addEvent(pose.process_on ? ProcessEventKind::kStart : ProcessEventKind::kStop,
+                        parameter_set, seam.name);
+      process_on = pose.process_on;
+    };
+    switch_process(seam.waypoints.front());
+    for (std::size_t k = 0; k < moves.size(); ++k) {
+      const SeamMove& move = moves[k];
+      const SolvedPose& target = seam.waypoints[move.move.end];
+      MotionRecord record;
+      record.kind = move.move.shape == MoveShape::kArc ? MotionKind::kCircularMove : MotionKind::kLinearMove;
+      record.q = target.q;
+      record.X_RT = target.X_XT;
+      if (move.move.shape == MoveShape::kArc) {
+        record.via = ViaPoint{seam.waypoints[move.move.via].q, seam.waypoints[move.move.via].X_XT};
       }
+      record.tool = tool_.name;
+      record.frame = seam.frame;
+      record.speed = {SpeedKind::kTcpSpeed, speeds[k]};
+      record.blend_radius = move.blend;
+      record.duration = timing.durations[k];
+      record.seam = seam.name;
+      record.branch = branch;
+      builder_.addMotion(record, world_, workspace_);
+      switch_process(target);
     }
     if (process_on) builder_.addEvent(ProcessEventKind::kStop, parameter_set, seam.name);
-    addLinearMove(seam, branch, *previous, seam.retract, options_.approach_speed,
+    addLinearMove(seam, branch, seam.waypoints.back(), seam.retract, options_.approach_speed,
                   static_cast<int>(seam.waypoints.size()));
     position_ = seam.retract.q;
     position_name_ = seam.name;
@@ -191,6 +253,7 @@ class ProgramAssembler {
                                     ": axis 5 within the wrist warning margin");
       }
     }
+    return true;
   }
 
   /// The warnings of the whole job, then the consistency check.
@@ -254,6 +317,11 @@ class ProgramAssembler {
   PlanResult& result_;
   const collision::CollisionWorld world_;
   collision::CollisionWorkspace workspace_;
+  /// The world the seams were solved in (the cell margin of options.collision):
+  /// the compacted moves are checked against it.
+  const collision::CollisionWorld seam_world_;
+  collision::CollisionWorkspace seam_workspace_;
+  const Eigen::Isometry3d X_BW_;
   const TransitPlanner transit_planner_;
   const unsigned seed_;
   Program program_;
@@ -299,7 +367,7 @@ PlanResult planJob(const Job& job, const PlanOptions& options) {
   assembler.startAtHome();
   for (std::size_t s = 0; s < seams.size(); ++s) {
     if (!assembler.transitTo(seams[s]->approach.q, seams[s]->name, static_cast<int>(s))) return result;
-    assembler.runSeam(*seams[s], job.tasks[s]);
+    if (!assembler.runSeam(*seams[s], job.tasks[s])) return result;
   }
   if (!assembler.transitTo(job.cell.home, "home", static_cast<int>(seams.size()))) return result;
   result.program = assembler.finish();

@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "planner/job/job.hpp"
+#include "planner/motion/seam_moves.hpp"
 #include "planner/program/program.hpp"
 #include "planner/seam/job_solver.hpp"
 #include "planner/step_callback.hpp"
@@ -33,6 +34,8 @@ struct PlanOptions {
   /// pairs with a cell body) at every motion target for the outputs (costs
   /// about a millisecond per record on the demo cell).
   bool measure_clearance = true;
+  /// How solved seams become controller moves: path tolerance and blends.
+  SeamMoveOptions moves;
   /// Generator name and version written into every program.
   std::string generator = "tracewright 0.1.0";
   /// Hears of each seam solved and each transit planned (see StepCallback);
@@ -55,12 +58,21 @@ struct SpeedLimit {
   LoweredSpeed lowered;
 };
 
+/// A seam whose compacted moves could not be followed as the controller
+/// interpolates them, even step by step (see compactSolvedSeam).
+struct MoveFailure {
+  std::string seam;
+  int waypoint = 0;  ///< the step from waypoint − 1 to waypoint
+  FollowFailure failure;
+};
+
 /// The result of planning a job: the seam solutions, then either a program
 /// or the reasons there is none.
 struct PlanResult {
   JobSolution seams;
   std::vector<TransitFailure> transit_failures;
   std::vector<SpeedLimit> speed_limits;
+  std::vector<MoveFailure> move_failures;
   /// Present only when every seam and transit succeeded.
   std::optional<Program> program;
 

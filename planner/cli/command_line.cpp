@@ -9,6 +9,7 @@
 #include "planner/cli/plan_commands.hpp"
 #include "planner/cli/posts_command.hpp"
 #include "planner/cli/refit_command.hpp"
+#include "planner/cli/verify_command.hpp"
 
 namespace tw::cli {
 
@@ -19,6 +20,7 @@ void addAllCommands(CLI::App& app, int& exit_code) {
   addRefitCommand(app, exit_code);
   addMotionFileCommands(app, exit_code);
   addPostsCommand(app, exit_code);
+  addVerifyCommand(app, exit_code);
 }
 
 int runCommandLine(CLI::App& app, int argc, const char* const* argv, const int& exit_code,

@@ -101,6 +101,12 @@ void printInfeasible(const PlanResult& result) {
                 failure.to.c_str(), planner::toString(failure.result.outcome),
                 failure.result.reason.c_str(), failure.result.planner.c_str());
   }
+  for (const planner::MoveFailure& failure : result.move_failures) {
+    std::printf("seam %s, step to waypoint %d: the controller's path cannot be followed at %s of "
+                "the step: %s\n",
+                failure.seam.c_str(), failure.waypoint,
+                formatFixed(failure.failure.fraction, 3).c_str(), failure.failure.reason.c_str());
+  }
   std::printf("no program written: the job is infeasible as it stands\n");
 }
 
@@ -188,6 +194,12 @@ nlohmann::json resultJson(const PlanResult& result, const std::vector<std::strin
                                        {"to", failure.to},
                                        {"outcome", planner::toString(failure.result.outcome)},
                                        {"reason", failure.result.reason}});
+  }
+  for (const planner::MoveFailure& failure : result.move_failures) {
+    json["failed_moves"].push_back({{"seam", failure.seam},
+                                    {"waypoint", failure.waypoint},
+                                    {"fraction", failure.failure.fraction},
+                                    {"reason", failure.failure.reason}});
   }
   if (result.program) {
     json["cycle_time_s"] = planner::cycleTime(*result.program);

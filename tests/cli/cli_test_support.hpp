@@ -14,6 +14,7 @@ namespace tw::cli::test {
 /// Scratch files under TW_TEST_OUTPUT_DIR, as in the planner tests.
 using planner::test::readText;
 using planner::test::sampleCellText;
+using planner::test::sourcePath;
 using planner::test::writeTestFile;
 
 /// What one run of the built `tracewright` printed and returned.
