@@ -192,8 +192,15 @@ class PageWriter {
            "</div>";
     out += "<div class=\"legend\"><span><span class=\"swatch sw-process\"></span>process on</span>"
            "<span><span class=\"swatch sw-seam\"></span>approach / retract of a seam</span>"
-           "<span><span class=\"swatch sw-air\"></span>moves outside seams</span>"
-           "<span>path drawn straight between targets; a joint move's real TCP path differs</span>";
+           "<span><span class=\"swatch sw-air\"></span>moves outside seams</span>";
+    // The arc wording only where there are arcs, so that pages of programs
+    // without them stay as they were.
+    const bool arcs = std::any_of(timeline_.begin(), timeline_.end(),
+                                  [](const TimelineMotion& entry) { return !entry.arc_C.empty(); });
+    out += arcs ? "<span>path drawn straight between targets, circular moves as their arcs; a "
+                  "joint move's real TCP path differs</span>"
+                : "<span>path drawn straight between targets; a joint move's real TCP path "
+                  "differs</span>";
     const std::vector<ReportBody>& bodies = options_.report_cell.bodies;
     for (std::size_t b = 0; b < bodies.size(); ++b) {
       out += "<span><span class=\"swatch sw-body-" + std::to_string(b % 4) + "\"></span>" +

@@ -481,6 +481,8 @@ TEST_CASE("The review report draws circular moves as arcs and lists their via po
   CHECK_THAT(via_text, Catch::Contains("11.3270") && Catch::Contains("975.000") &&
                            Catch::Contains("via"));
   CHECK_THAT(allText(*after), Catch::Contains("circular-move"));
-  // The speed chart compares arcs against their arc length and says so.
+  // The legend says arcs are drawn as arcs, and the speed chart compares
+  // them against their arc length and says so.
+  CHECK_THAT(allText(*report.root), Catch::Contains("circular moves as their arcs"));
   CHECK_THAT(allText(*report.root), Catch::Contains("path length (chord or arc) ÷ duration"));
 }
