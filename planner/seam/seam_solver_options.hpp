@@ -65,7 +65,7 @@ struct SeamSolverOptions {
   /// spin keeping axis 5 at 48° wins over one at 5° that moves the joints
   /// less, while the sample seams keep the motion-only choice wherever no
   /// margin is short.
-  double singularity_weight = 0.05;  ///< [cost unit per pose]
+  double singularity_weight = 0.5;  ///< [cost unit per pose]
   double clearance_weight = 0.02;    ///< [cost unit per pose]
   double limit_weight = 0.05;        ///< [cost unit per pose]
   /// Clearance to the cell (CollisionWorld::clearance, PairGroup::kCell)
