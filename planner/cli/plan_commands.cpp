@@ -296,6 +296,7 @@ int runPlan(const PlanArguments& arguments) {
   ProgressBar bar(stderr, stderrIsTerminal(), seams + (seams + 1) + static_cast<int>(job.outputs.size()));
   planner::PlanOptions options;
   options.solver.threads = arguments.threads;
+  options.solver.find_alternative = true;  // printed per seam: what the choice traded
   std::map<std::string, EarlierSeam> earlier;
   if (!arguments.like.empty()) {
     earlier = earlierSeams(arguments.like, job);
@@ -341,6 +342,7 @@ int runCheck(const PlanArguments& arguments) {
   ProgressBar bar(stderr, stderrIsTerminal(), static_cast<int>(job.tasks.size()));
   planner::SeamSolverOptions options;
   options.threads = arguments.threads;
+  options.find_alternative = true;
   bar.stage("solving seams");
   const planner::JobSolution solution = planner::solveJob(
       job, options, {}, [&bar](const std::string& finished) { bar.step(finished); });

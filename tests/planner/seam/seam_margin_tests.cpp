@@ -151,7 +151,8 @@ TEST_CASE("On a wall seam the solver keeps axis 5 at least 10 degrees where a sp
   CHECK(smallestWrist(near) < 10.0 * kDeg);
 
   // With the margin penalties (defaults): 10° everywhere (issue 14's bar).
-  const SeamSolverOptions options;
+  SeamSolverOptions options;
+  options.find_alternative = true;
   const SeamOutcome kept_outcome = scene.solve(path, options);
   const SolvedSeam& kept = solvedOrFail(kept_outcome);
   CAPTURE(describeMargins(kept));
