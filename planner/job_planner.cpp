@@ -245,14 +245,10 @@ class ProgramAssembler {
     if (process_on) builder_.addEvent(ProcessEventKind::kStop, parameter_set, seam.name);
     addLinearMove(seam, branch, seam.waypoints.back(), seam.retract, options_.approach_speed,
                   static_cast<int>(seam.waypoints.size()));
+    // No planner warning per near-singular waypoint: each of its records
+    // carries the singularity margin, which the review warns about once.
     position_ = seam.retract.q;
     position_name_ = seam.name;
-    for (std::size_t i = 0; i < seam.waypoints.size(); ++i) {
-      if (seam.waypoints[i].wrist_warning) {
-        program_.warnings.push_back("seam " + seam.name + " waypoint " + std::to_string(i) +
-                                    ": axis 5 within the wrist warning margin");
-      }
-    }
     return true;
   }
 

@@ -181,6 +181,47 @@ void printSummary(const planner::Program& program, const std::vector<std::string
   std::printf("%s\n", postproc::safetyCaution(program).front().c_str());
 }
 
+/// One path's margins in the JSON outputs, in the file units (deg, mm).
+nlohmann::json marginsJson(const planner::PathMargins& margins) {
+  constexpr double kDegree = 180.0 / kPi;
+  nlohmann::json json{{"branch", margins.branch.toString()},
+                      {"spin_deg", margins.spin * kDegree},
+                      {"cost", margins.cost},
+                      {"motion_cost", margins.motion_cost},
+                      {"axis5_margin_deg", margins.wrist_angle * kDegree},
+                      {"singular_poses", margins.singular_poses},
+                      {"limit_margin_deg", margins.limit_margin * kDegree},
+                      {"limit_axis", margins.limit_joint + 1}};
+  if (margins.clearance >= 0.0) {
+    json["clearance_mm"] = margins.clearance * 1000.0;
+    json["clearance_at_least"] = margins.clearance_capped;
+  }
+  return json;
+}
+
+/// Per solved seam: the chosen path's margins and the best alternative's
+/// (null when there is none).
+nlohmann::json seamChoicesJson(const planner::JobSolution& solution) {
+  nlohmann::json json = nlohmann::json::array();
+  for (const planner::SeamOutcome& outcome : solution.tasks) {
+    const planner::SolvedSeam* seam = std::get_if<planner::SolvedSeam>(&outcome);
+    if (seam == nullptr) continue;
+    json.push_back({{"seam", seam->name},
+                    {"chosen", marginsJson(seam->margins)},
+                    {"alternative", seam->alternative ? marginsJson(*seam->alternative)
+                                                      : nlohmann::json(nullptr)}});
+  }
+  return json;
+}
+
+void printSeamChoices(const planner::JobSolution& solution) {
+  for (const planner::SeamOutcome& outcome : solution.tasks) {
+    if (const planner::SolvedSeam* seam = std::get_if<planner::SolvedSeam>(&outcome)) {
+      std::printf("seam %s %s\n", seam->name.c_str(), planner::describeMargins(*seam).c_str());
+    }
+  }
+}
+
 nlohmann::json resultJson(const PlanResult& result, const std::vector<std::string>& written) {
   nlohmann::json json;
   json["feasible"] = result.feasible();
@@ -201,6 +242,7 @@ nlohmann::json resultJson(const PlanResult& result, const std::vector<std::strin
                                     {"fraction", failure.failure.fraction},
                                     {"reason", failure.failure.reason}});
   }
+  json["seam_choices"] = seamChoicesJson(result.seams);
   if (result.program) {
     json["cycle_time_s"] = planner::cycleTime(*result.program);
     json["records"] = result.program->records.size();
@@ -266,6 +308,7 @@ int runPlan(const PlanArguments& arguments) {
   ProgressBar bar(stderr, stderrIsTerminal(), seams + (seams + 1) + static_cast<int>(job.outputs.size()));
   planner::PlanOptions options;
   options.solver.threads = arguments.threads;
+  options.solver.find_alternative = true;  // printed per seam: what the choice traded
   std::map<std::string, EarlierSeam> earlier;
   if (!arguments.like.empty()) {
     earlier = earlierSeams(arguments.like, job);
@@ -297,6 +340,7 @@ int runPlan(const PlanArguments& arguments) {
       for (const std::string& change : changes) std::printf("  %s\n", change.c_str());
     }
     printSummary(*result.program, written);
+    printSeamChoices(result.seams);
   } else {
     printInfeasible(result);
   }
@@ -310,6 +354,7 @@ int runCheck(const PlanArguments& arguments) {
   ProgressBar bar(stderr, stderrIsTerminal(), static_cast<int>(job.tasks.size()));
   planner::SeamSolverOptions options;
   options.threads = arguments.threads;
+  options.find_alternative = true;
   bar.stage("solving seams");
   const planner::JobSolution solution = planner::solveJob(
       job, options, {}, [&bar](const std::string& finished) { bar.step(finished); });
@@ -323,7 +368,11 @@ int runCheck(const PlanArguments& arguments) {
         json["tasks"].push_back({{"seam", seam->name},
                                  {"reachable", true},
                                  {"waypoints", seam->waypoints.size()},
-                                 {"branch", seam->branch.toString()}});
+                                 {"branch", seam->branch.toString()},
+                                 {"chosen", marginsJson(seam->margins)},
+                                 {"alternative", seam->alternative
+                                                     ? marginsJson(*seam->alternative)
+                                                     : nlohmann::json(nullptr)}});
       } else {
         const planner::SeamReport& report = std::get<planner::SeamReport>(outcome);
         json["tasks"].push_back({{"seam", report.name}, {"reachable", false}, {"report", report.text()}});
@@ -336,6 +385,7 @@ int runCheck(const PlanArguments& arguments) {
         std::printf("%-20s reachable: %zu waypoints, %s, axis 5 at least %s deg from 0\n",
                     seam->name.c_str(), seam->waypoints.size(), seam->branch.toString().c_str(),
                     formatFixed(seam->min_wrist_angle * 180.0 / kPi, 1).c_str());
+        std::printf("  %s\n", planner::describeMargins(*seam).c_str());
       } else {
         std::printf("%s\n", std::get<planner::SeamReport>(outcome).text().c_str());
       }

@@ -1,5 +1,6 @@
 #include "planner/cli/refit_command.hpp"
 
+#include <cmath>
 #include <cstdio>
 #include <fstream>
 #include <memory>
@@ -114,7 +115,9 @@ int runRefit(const RefitArguments& arguments) {
   const double tolerance = arguments.tolerance_mm / kMToMm;
   int above = 0;
   for (Eigen::Index i = 0; i < n; ++i) {
-    const bool too_large = fit.residuals[i] > tolerance;
+    // Judged as printed (to 1 µm): a residual shown equal to the tolerance is within it.
+    const bool too_large =
+        std::round(fit.residuals[i] * kMToMm * 1000.0) > std::round(arguments.tolerance_mm * 1000.0);
     above += too_large;
     std::printf("%-16s %12s%s\n", list.points[i].name.c_str(), mm(fit.residuals[i]).c_str(),
                 too_large ? "  above the tolerance" : "");

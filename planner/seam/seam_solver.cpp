@@ -5,6 +5,8 @@
 #include <cstdint>
 #include <limits>
 #include <set>
+#include <tuple>
+#include <utility>
 #include <stdexcept>
 #include <unordered_map>
 
@@ -17,6 +19,9 @@ namespace {
 
 using kinematics::JointVector;
 constexpr double kInfinity = std::numeric_limits<double>::infinity();
+/// Clearance queries may report up to this much above the true distance
+/// [m]; 0.1 mm is far below any comfort distance worth setting.
+constexpr double kClearanceTolerance = 1e-4;
 
 enum class CheckState : std::uint8_t { kUnchecked, kFree, kColliding };
 
@@ -27,6 +32,13 @@ struct Candidate {
   bool wrist_warning = false;
   CheckState check = CheckState::kUnchecked;
   collision::StateResult collision;  ///< set when kColliding
+  double penalty = 0.0;  ///< singularity and joint-limit penalties of this pose
+  /// Clearance to the cell capped at the comfort distance [m], and its
+  /// penalty; until measured (clearance_known) the penalty is 0, a lower
+  /// bound, so that the search stays optimal while measuring lazily.
+  bool clearance_known = false;
+  double clearance = 0.0;
+  double clearance_penalty = 0.0;
   double cost = kInfinity;           ///< best cost from the first pose
   int pred = -1;                     ///< index in the previous layer
 };
@@ -51,6 +63,9 @@ double wristAngle(const kinematics::OrthoParallelGeometry& g, const JointVector&
   const double theta5 = g.sign[4] * q[4] + g.zero_offset[4];
   return std::abs(theta5 - kPi * std::round(theta5 / kPi));
 }
+
+/// How far x falls short of the threshold t, from 0 (at or above t) to 1 (at 0).
+double shortfall(double x, double t) { return t > 0.0 ? std::max(0.0, 1.0 - x / t) : 0.0; }
 
 double rotationAngle(const Eigen::Matrix3d& R_a, const Eigen::Matrix3d& R_b) {
   const double c = 0.5 * ((R_a.transpose() * R_b).trace() - 1.0);
@@ -99,22 +114,41 @@ class SeamSearch {
   }
 
   SeamOutcome run() {
-    int from = 0;
+    const std::optional<std::vector<int>> chosen = findPath(0);
+    if (!chosen) return report();
+    SolvedSeam seam = solved(*chosen);
+    if (options_.find_alternative) {
+      // Layer 1 is the first waypoint; the approach start shares its spin.
+      const Candidate& first = layers_[1].candidates[(*chosen)[1]];
+      alternative_to_ = std::make_pair(first.branch, first.spin);
+      if (const std::optional<std::vector<int>> other = findPath(1)) {
+        seam.alternative = margins(*other);
+      }
+      alternative_to_.reset();
+      seam.counts = counts_;
+    }
+    return seam;
+  }
+
+ private:
+  /// The cheapest path that passes every check, searching again from layer
+  /// `from` (the layers before it keep their costs), or nullopt when none.
+  std::optional<std::vector<int>> findPath(int from) {
+    const int last = static_cast<int>(layers_.size()) - 1;
     for (;;) {
       search(from);
       ++counts_.searches;
-      const int last = static_cast<int>(layers_.size()) - 1;
       const int end = bestIn(layers_[last]);
-      if (end < 0) return report();
+      if (end < 0) return std::nullopt;
       std::vector<int> chosen(layers_.size());
       chosen[last] = end;
       for (int l = last; l > 0; --l) chosen[l - 1] = layers_[l].candidates[chosen[l]].pred;
       from = validate(chosen);
-      if (from < 0) return solved(chosen);
+      if (from < 0) from = measureClearance(chosen);
+      if (from < 0) return chosen;
     }
   }
 
- private:
   /// Settings that would make the search meaningless are refused, not mended.
   void checkOptions() const {
     const auto refuse = [](const std::string& what) {
@@ -127,6 +161,15 @@ class SeamSearch {
     }
     if (!(options_.interpolation_step > 0.0) || !(options_.interpolation_angle > 0.0)) {
       refuse("interpolation_step and interpolation_angle must be positive");
+    }
+    if (!(options_.singularity_weight >= 0.0) || !(options_.clearance_weight >= 0.0) ||
+        !(options_.limit_weight >= 0.0)) {
+      refuse("the margin penalty weights must not be negative");
+    }
+    if (!(options_.clearance_comfort > 0.0) || !(options_.revolute_limit_warning > 0.0) ||
+        !(options_.prismatic_limit_warning > 0.0) || !(options_.alternative_spin_gap >= 0.0)) {
+      refuse("clearance_comfort and the limit warnings must be positive, alternative_spin_gap "
+             "not negative");
     }
     if (options_.weights.size() != 0 && options_.weights.size() != arm_.jointCount()) {
       refuse("weights needs one value per joint (" + std::to_string(arm_.jointCount()) +
@@ -197,10 +240,16 @@ class SeamSearch {
     return ((sb + d) % spins + spins) % spins;
   }
 
+  /// The approach (into layer 1) and the retract (into the last layer) are
+  /// moves along the tool axis: they keep the spin, so the tool keeps the
+  /// orientation of the first and last waypoint.
+  bool keepsSpin(int l) const { return l == 1 || l == static_cast<int>(layers_.size()) - 1; }
+
   /// The bound for a step from spin sa to spin sb into layer l, or nullopt
   /// when the spin changes by more than max_spin_change samples.
   std::optional<double> boundInto(int l, int sa, int sb) const {
-    for (int d = -max_spin_change_; d <= max_spin_change_; ++d) {
+    const int spin_change = keepsSpin(l) ? 0 : max_spin_change_;
+    for (int d = -spin_change; d <= spin_change; ++d) {
       const std::optional<int> from = spinFrom(sb, d);
       if (from && *from == sa) {
         return layers_[l].step_bound[sb * (2 * max_spin_change_ + 1) + d + max_spin_change_];
@@ -254,6 +303,9 @@ class SeamSearch {
           candidate.branch = outcome.branch.index();
           candidate.spin = s;
           candidate.wrist_warning = wrist < options_.wrist_warning_margin;
+          candidate.penalty =
+              options_.singularity_weight * shortfall(wrist, options_.wrist_warning_margin) +
+              options_.limit_weight * limitShortfall(q);
           layer.candidates.push_back(candidate);
         }
       }
@@ -273,6 +325,31 @@ class SeamSearch {
     for (std::size_t g = 1; g < layer.group_start.size(); ++g) {
       layer.group_start[g] += layer.group_start[g - 1];
     }
+  }
+
+  /// The smallest margin of any joint of q to its nearer limit, as
+  /// (margin [rad] or [m], joint).
+  std::pair<double, int> limitMargin(const JointVector& q) const {
+    std::pair<double, int> smallest{kInfinity, -1};
+    for (int j = 0; j < arm_.jointCount(); ++j) {
+      const kinematics::JointSpec& joint = arm_.joint(j);
+      const double margin = std::min(q[j] - joint.lower, joint.upper - q[j]);
+      if (margin < smallest.first) smallest = {margin, j};
+    }
+    return smallest;
+  }
+
+  /// The largest shortfall of any joint's limit margin below its warning margin.
+  double limitShortfall(const JointVector& q) const {
+    double worst = 0.0;
+    for (int j = 0; j < arm_.jointCount(); ++j) {
+      const kinematics::JointSpec& joint = arm_.joint(j);
+      const double warning = joint.type == kinematics::JointType::kRevolute
+                                 ? options_.revolute_limit_warning
+                                 : options_.prismatic_limit_warning;
+      worst = std::max(worst, shortfall(std::min(q[j] - joint.lower, joint.upper - q[j]), warning));
+    }
+    return worst;
   }
 
   /// TCP travel [m] between spin sample sa of layer a and sb of layer b.
@@ -306,7 +383,8 @@ class SeamSearch {
     const Layer& layer = layers_[l];
     const int spins = static_cast<int>(spins_.size());
     const int offsets = 2 * max_spin_change_ + 1;
-    for (int d = -max_spin_change_; d <= max_spin_change_; ++d) {
+    const int spin_change = keepsSpin(l) ? 0 : max_spin_change_;
+    for (int d = -spin_change; d <= spin_change; ++d) {
       const std::optional<int> sa = spinFrom(c.spin, d);
       if (!sa) continue;
       const double bound = layer.step_bound[c.spin * offsets + d + max_spin_change_];
@@ -330,8 +408,10 @@ class SeamSearch {
         c.cost = kInfinity;
         c.pred = -1;
         if (c.check == CheckState::kColliding) continue;
+        if (l == 1 && alternative_to_ && !isAlternative(c)) continue;
+        const double penalty = c.penalty + c.clearance_penalty;
         if (l == 0) {
-          c.cost = setting_.reference ? stepCost(*setting_.reference, c.q) : 0.0;
+          c.cost = (setting_.reference ? stepCost(*setting_.reference, c.q) : 0.0) + penalty;
           continue;
         }
         const Layer& prev = layers_[l - 1];
@@ -340,7 +420,7 @@ class SeamSearch {
           if (from_c.cost == kInfinity) return;
           const auto known = edges_.find(edgeKey(l, i, p));
           if (known != edges_.end() && !known->second) return;
-          const double cost = from_c.cost + stepCost(from_c.q, c.q);
+          const double cost = from_c.cost + stepCost(from_c.q, c.q) + penalty;
           if (cost < c.cost) {
             c.cost = cost;
             c.pred = p;
@@ -348,6 +428,53 @@ class SeamSearch {
         });
       }
     }
+  }
+
+  /// Whether candidate c of the first waypoint may start the alternative:
+  /// another branch, or a spin at least alternative_spin_gap away.
+  bool isAlternative(const Candidate& c) const {
+    if (c.branch != alternative_to_->first) return true;
+    double gap = std::abs(spins_[c.spin] - spins_[alternative_to_->second]);
+    if (full_circle_) gap = std::min(gap, 2.0 * kPi - gap);
+    return gap >= options_.alternative_spin_gap - 1e-9;
+  }
+
+  /// Measures the clearance of the chosen path's poses not yet known and
+  /// returns the first layer whose penalty became positive (its cost was
+  /// underestimated), or −1 when the path's cost was exact. The distance to
+  /// the cell changes between two states by no more than any body moves
+  /// (CollisionWorld::motionBound), so a pose whose bound from the last
+  /// measured state stays above the comfort distance is not measured.
+  int measureClearance(const std::vector<int>& chosen) {
+    if (options_.clearance_weight <= 0.0) return -1;
+    const double comfort = options_.clearance_comfort;
+    const collision::ClearanceQuery query{kClearanceTolerance, collision::PairGroup::kCell};
+    int first_change = -1;
+    for (int l = 0; l < static_cast<int>(layers_.size()); ++l) {
+      Layer& layer = layers_[l];
+      const Candidate& c = layer.candidates[chosen[l]];
+      if (c.clearance_known) continue;
+      double capped = comfort;
+      const bool surely_comfortable =
+          measured_ && measured_->second - kClearanceTolerance -
+                               world_.motionBound(measured_->first, c.q) >=
+                           comfort;
+      if (!surely_comfortable) {
+        const double distance = world_.clearance(c.q, workspace_, query).distance;
+        ++counts_.clearance_queries;
+        measured_ = std::make_pair(c.q, distance);
+        capped = std::min(distance, comfort);
+      }
+      const double penalty = options_.clearance_weight * shortfall(capped, comfort);
+      const int group = c.branch * static_cast<int>(spins_.size()) + c.spin;
+      for (int k = layer.group_start[group]; k < layer.group_start[group + 1]; ++k) {
+        layer.candidates[k].clearance_known = true;
+        layer.candidates[k].clearance = capped;
+        layer.candidates[k].clearance_penalty = penalty;
+      }
+      if (penalty > 0.0 && first_change < 0) first_change = l;
+    }
+    return first_change;
   }
 
   static int bestIn(const Layer& layer) {
@@ -472,7 +599,32 @@ class SeamSearch {
     return out;
   }
 
-  SeamOutcome solved(const std::vector<int>& chosen) const {
+  PathMargins margins(const std::vector<int>& chosen) const {
+    PathMargins out;
+    const int last = static_cast<int>(layers_.size()) - 1;
+    const Candidate& first = layers_[1].candidates[chosen[1]];
+    out.branch = kinematics::ArmBranch::fromIndex(first.branch);
+    out.spin = spins_[first.spin];
+    out.cost = layers_[last].candidates[chosen[last]].cost;
+    out.wrist_angle = kInfinity;
+    out.limit_margin = kInfinity;
+    out.clearance = options_.clearance_weight > 0.0 ? kInfinity : -1.0;
+    double penalties = 0.0;
+    for (int l = 0; l <= last; ++l) {
+      const Candidate& c = layers_[l].candidates[chosen[l]];
+      penalties += c.penalty + c.clearance_penalty;
+      out.wrist_angle = std::min(out.wrist_angle, wristAngle(geometry_, c.q));
+      const std::pair<double, int> limit = limitMargin(c.q);
+      if (limit.first < out.limit_margin) std::tie(out.limit_margin, out.limit_joint) = limit;
+      if (options_.clearance_weight > 0.0) out.clearance = std::min(out.clearance, c.clearance);
+      if (c.wrist_warning) ++out.singular_poses;
+    }
+    out.clearance_capped = out.clearance >= options_.clearance_comfort;
+    out.motion_cost = out.cost - penalties;
+    return out;
+  }
+
+  SolvedSeam solved(const std::vector<int>& chosen) const {
     SolvedSeam seam;
     seam.name = path_.name;
     seam.frame = path_.frame;
@@ -499,6 +651,7 @@ class SeamSearch {
       seam.axis6_min = std::min(seam.axis6_min, q[5]);
       seam.axis6_max = std::max(seam.axis6_max, q[5]);
     }
+    seam.margins = margins(chosen);
     seam.counts = counts_;
     return seam;
   }
@@ -614,6 +767,10 @@ class SeamSearch {
   kinematics::IkSolutions solutions_;
   std::vector<JointVector> states_;
   SolverCounts counts_;
+  /// While the alternative is sought: the (branch, spin) of the chosen first waypoint.
+  std::optional<std::pair<int, int>> alternative_to_;
+  /// The last state whose clearance was measured, and that clearance [m].
+  std::optional<std::pair<JointVector, double>> measured_;
 };
 
 }  // namespace

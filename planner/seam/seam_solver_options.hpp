@@ -52,6 +52,42 @@ struct SeamSolverOptions {
   /// velocity of each joint, so the cost is the time-like sum of joint
   /// motions at full speed [s].
   Eigen::VectorXd weights;
+
+  /// Margin penalties. Every pose of the path (approach start, waypoints,
+  /// retract end) adds to the motion cost, once per pose,
+  ///   singularity_weight · shortfall(axis-5 angle, wrist_warning_margin)
+  /// + clearance_weight   · shortfall(clearance to the cell, clearance_comfort)
+  /// + limit_weight       · shortfall(smallest joint-limit margin, its warning margin),
+  /// where shortfall(x, t) = max(0, 1 − x / t) runs from 0 at the threshold
+  /// to 1 at zero margin. The weights are in the unit of the motion cost
+  /// ([s] with the default weights); 0 turns a penalty off. The singularity
+  /// weight comes from the wall-seam test (seam_margin_tests.cpp): at 0.05
+  /// the solver kept 2 poses at 6.5° to save 0.09 of motion; at 0.5 it keeps
+  /// 10° everywhere. At these defaults the four sample jobs keep their
+  /// motion-only choices (same cycle times, records and warnings). The
+  /// clearance and limit weights were not tuned by experiment: the sample
+  /// welds sit 14–17 mm from the cell on every spin, so the clearance
+  /// penalty there only shifts costs.
+  double singularity_weight = 0.5;  ///< [cost unit per pose]
+  double clearance_weight = 0.02;    ///< [cost unit per pose]
+  double limit_weight = 0.05;        ///< [cost unit per pose]
+  /// Clearance to the cell (CollisionWorld::clearance, PairGroup::kCell)
+  /// below which a pose is penalised; above the cell margin of the world,
+  /// or it never matters. 20 mm: twice the default cell margin (common
+  /// practice, no source).
+  double clearance_comfort = 0.020;              ///< [m]
+  /// Joint-limit margins below which a pose is penalised; the summary's
+  /// warning margins (postproc::WriteOptions, common practice, no source).
+  double revolute_limit_warning = 5.0 * kPi / 180.0;  ///< [rad]
+  double prismatic_limit_warning = 0.010;             ///< [m]
+  /// Also find the best alternative (SolvedSeam::alternative): the
+  /// cheapest path whose first waypoint is in another branch, or whose spin
+  /// there is at least alternative_spin_gap from the chosen one. Costs one
+  /// more lazy search whose steps are mostly new (about 1.5 times the solve
+  /// on the 500-waypoint benchmark), so it is off unless asked for; the
+  /// `plan` and `check` commands ask for it.
+  bool find_alternative = false;
+  double alternative_spin_gap = 30.0 * kPi / 180.0;  ///< [rad]
   /// Seams solved at once by solveJob; results do not depend on it.
   int threads = 2;
   /// By seam (task) name, a configuration to stay near instead of the
@@ -67,6 +103,7 @@ struct SolverCounts {
   long ik_calls = 0;          ///< closed-form solves (candidates and interpolation)
   long state_checks = 0;      ///< collision state checks, including those inside segment checks
   long edges_validated = 0;   ///< steps fully checked (interpolation, continuity, collision)
+  long clearance_queries = 0; ///< clearance distances computed for the margin penalty
   int searches = 0;           ///< shortest-path searches (1 + re-plans)
 };
 

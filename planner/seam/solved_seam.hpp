@@ -1,6 +1,7 @@
 #pragma once
 
 #include <Eigen/Geometry>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -31,6 +32,27 @@ struct SolvedPose {
   bool wrist_warning = false;
 };
 
+/// The margins of one solved path over all its poses (approach start,
+/// waypoints, retract end), and what it costs (SeamSolverOptions).
+struct PathMargins {
+  kinematics::ArmBranch branch;
+  double spin = 0.0;         ///< spin at the first waypoint [rad]
+  double cost = 0.0;         ///< motion plus margin penalties
+  double motion_cost = 0.0;  ///< the weighted joint motion alone
+  double wrist_angle = 0.0;  ///< smallest distance of axis 5 from 0 or ±180° [rad]
+  /// Smallest margin of any joint to its nearer limit [rad] (prismatic
+  /// [m]), and that joint's index.
+  double limit_margin = 0.0;
+  int limit_joint = -1;
+  /// Smallest clearance to the cell, capped at
+  /// SeamSolverOptions::clearance_comfort [m]: equal to the cap means at
+  /// least that much (the solver measures exactly only below it). Negative
+  /// when the clearance penalty is off (not measured).
+  double clearance = -1.0;
+  bool clearance_capped = false;  ///< the clearance is the cap: at least that much
+  int singular_poses = 0;  ///< poses with axis 5 within the wrist warning margin
+};
+
 /// A seam the arm can run: one configuration per waypoint of its ToolPath,
 /// all in one branch, continuous, within limits and collision-free with the
 /// clearance margin (including the linear moves between them, re-solved
@@ -59,7 +81,23 @@ struct SolvedSeam {
   /// Range swept by axes 4 and 6 over approach, seam and retract [rad]
   /// (unwrapped values), for dress-pack review.
   double axis4_min = 0.0, axis4_max = 0.0, axis6_min = 0.0, axis6_max = 0.0;
+  /// The chosen path's margins, and those of the best alternative
+  /// (SeamSolverOptions::find_alternative): the cheapest path that starts
+  /// in another branch or at a spin at least alternative_spin_gap away;
+  /// empty when there is none or it was not sought.
+  PathMargins margins;
+  std::optional<PathMargins> alternative;
   SolverCounts counts;
 };
+
+/// What the choice traded, for the terminal: "chosen: <branch>, spin <deg>,
+/// cost <c> (motion <m>); axis 5 at least <deg> from 0, limits at least
+/// <deg> (axis <n>), clearance <mm>" and on a second line the same for the
+/// best alternative ("none ..." without one). The clearance is capped at the
+/// comfort distance and left out when not measured. Numbers through
+/// tw::formatFixed (C locale).
+std::string describeMargins(const SolvedSeam& seam);
+/// The part after "chosen: " for one path.
+std::string describeMargins(const PathMargins& margins);
 
 }  // namespace tw::planner

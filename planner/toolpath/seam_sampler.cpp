@@ -11,6 +11,9 @@ namespace {
 
 // Above this a "smooth" vertex could be a near reversal with no mean direction.
 constexpr double kMaxCornerAngle = 170.0 * kPi / 180.0;
+/// A sample this near an input point along the polyline [m] is on it: far
+/// below any listed precision, far above the rounding of summed lengths.
+constexpr double kOnPoint = 1e-9;
 
 /// Unit direction between two unit vectors less than 90° apart (their
 /// linear blend is then at least 1/√2 long, never zero).
@@ -121,7 +124,11 @@ std::vector<SeamSample> sampleSeam(const SeamPointList& list, const SamplingOpti
       if (a.speed && b.speed) sample.speed = (1.0 - f) * *a.speed + f * *b.speed;
       sample.arc_length = span_start_s + s;
       sample.corner = (j == 0 && k > 0) || (j == pieces && k + 1 < spans.size());
-      sample.line = j == pieces ? b.line : a.line;
+      // A sample on an input point names that point's line: a sample that
+      // lands exactly on a vertex inside a span stays, by the loop above, at
+      // the end of the segment before it (f = 1, up to rounding).
+      const double to_end = segment_start + length[segment] - s;
+      sample.line = j == pieces || to_end <= kOnPoint ? b.line : a.line;
       samples.push_back(sample);
     }
     span_start_s += span_length;

@@ -33,7 +33,9 @@ struct SeamSample {
   /// direction (arriving), once with the outgoing one (leaving), so the tool
   /// turns on the spot instead of cutting the corner.
   bool corner = false;
-  int line = 0;  ///< line of the input point that starts this segment
+  /// Line of the input point this sample is on, else of the point that
+  /// starts the input segment it lies in.
+  int line = 0;
 };
 
 /// Resamples `points` along its polyline. Samples sit on the polyline; the

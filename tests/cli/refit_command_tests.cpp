@@ -1,8 +1,10 @@
 // Runs the built `tracewright refit` as a user would and checks its exit
 // codes, its report and what it writes.
 #include <catch2/catch.hpp>
+#include <sstream>
 
 #include "kinematics/common/angles.hpp"
+#include "kinematics/common/number_text.hpp"
 #include "kinematics/urdf_chain.hpp"
 #include "planner/cell/cell_loader.hpp"
 #include "planner/job/job_loader.hpp"
@@ -144,6 +146,38 @@ TEST_CASE("refit warns about a residual above the tolerance and then refuses to 
   // A looser tolerance accepts the same points.
   CHECK(runTool("refit '" + cell + "' --frame bracket --points '" + points + "' --tolerance 5")
             .output.find("above the tolerance") == std::string::npos);
+}
+
+TEST_CASE("refit counts a residual printed equal to the tolerance as within it", "[cli][refit]") {
+  const std::string cell = cellCopy("refit_equal_tolerance.xml");
+  const std::string points = pointsWithShift("refit_equal_tolerance.csv", "R3", 2.0);
+  const std::string command = "refit '" + cell + "' --frame bracket --points '" + points + "'";
+  const test::ToolRun first = runTool(command);
+  CAPTURE(first.output);
+  REQUIRE(first.exit_code == 0);
+  // The largest residual as printed ("R3  <mm>  above the tolerance").
+  const std::size_t row = first.output.find("\nR3 ");
+  REQUIRE(row != std::string::npos);
+  const std::string printed = [&] {
+    std::istringstream fields(first.output.substr(row + 1, first.output.find('\n', row + 1) - row - 1));
+    std::string name, value;
+    fields >> name >> value;
+    return value;
+  }();
+  CAPTURE(printed);
+  REQUIRE(std::stod(printed) > 0.5);  // a 2 mm shift leaves well over the default
+  // Equal to the printed residual: within (common practice, no source: a
+  // tolerance is an inclusive bound).
+  const test::ToolRun equal = runTool(command + " --tolerance " + printed + " --write-cell");
+  CAPTURE(equal.output);
+  CHECK(equal.exit_code == 0);
+  CHECK_THAT(equal.output, !Catch::Contains("above the tolerance"));
+  // One printed digit less: above, refused.
+  const std::string below = formatFixed(std::stod(printed) - 0.001, 3);
+  const test::ToolRun tighter = runTool(command + " --tolerance " + below + " --write-cell");
+  CAPTURE(tighter.output);
+  CHECK(tighter.exit_code == 3);
+  CHECK_THAT(tighter.output, Catch::Contains("above the tolerance"));
 }
 
 TEST_CASE("refit with 3 points works and warns that the fit is barely checked", "[cli][refit]") {

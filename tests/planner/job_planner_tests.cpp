@@ -6,6 +6,7 @@
 #include <variant>
 
 #include "collision/collision_world.hpp"
+#include "kinematics/common/angles.hpp"
 #include "collision/world_description.hpp"
 #include "planner/cell/cell_collision_world.hpp"
 #include "planner/job/job_loader.hpp"
@@ -87,6 +88,45 @@ TEST_CASE("The cell's collision world takes both margins, and refuses a bad one 
                     Catch::Contains("panel_paint_cell.xml") &&
                         Catch::Contains("self margin") &&
                         Catch::Contains("must be a positive length"));
+}
+
+}  // namespace
+}  // namespace tw::planner
+
+namespace tw::planner {
+namespace {
+
+TEST_CASE("A waypoint near the wrist singularity is warned about once, on its record",
+          "[planner][job]") {
+  const Job job = loadJob(test::sourcePath("samples/jobs/panel_seal.xml"));
+  // The sample keeps axis 5 above 60°; an 80° warning margin flags waypoints.
+  constexpr double kMargin = 80.0 * kPi / 180.0;
+  PlanOptions options;
+  options.solver.wrist_warning_margin = kMargin;
+  const PlanResult result = planJob(job, options);
+  REQUIRE(result.feasible());
+  const SolvedSeam& seam = std::get<SolvedSeam>(result.seams.tasks.at(0));
+  int flagged = 0;
+  for (const SolvedPose& pose : seam.waypoints) flagged += pose.wrist_warning;
+  CAPTURE(flagged);
+  REQUIRE(flagged > 0);
+  // The planner adds no warning of its own per flagged waypoint ...
+  for (const std::string& warning : result.program->warnings) {
+    CAPTURE(warning);
+    CHECK(warning.find("axis 5") == std::string::npos);
+  }
+  // ... because the waypoint's record carries the margin, which the review
+  // warns about (one record per waypoint, plus the retract's).
+  int records_below = 0;
+  for (const ProgramRecord& record : result.program->records) {
+    const auto* motion = std::get_if<MotionRecord>(&record);
+    if (motion && motion->seam == seam.name && motion->singularity_margin &&
+        *motion->singularity_margin < kMargin) {
+      ++records_below;
+    }
+  }
+  CHECK(records_below >= flagged);
+  CHECK(records_below <= flagged + 1);
 }
 
 }  // namespace

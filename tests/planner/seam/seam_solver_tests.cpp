@@ -94,6 +94,16 @@ void verifySolved(const SolvedSeam& seam, const ToolPath& path, const SeamSettin
   }
   poses.push_back(&seam.retract);
   wanted.push_back(path.retract);
+  // Approach and retract run along the tool axis: the tool keeps exactly the
+  // orientation of the first and last waypoint. 1e-9 rad: the issue's bar,
+  // the same rotation matrices up to FK rounding (~1e-15).
+  CHECK(rotationAngle(seam.approach.X_XT.linear(), seam.waypoints.front().X_XT.linear()) <= 1e-9);
+  CHECK(rotationAngle(seam.retract.X_XT.linear(), seam.waypoints.back().X_XT.linear()) <= 1e-9);
+  const auto fkRotation = [&](const SolvedPose& pose) -> Eigen::Matrix3d {
+    return (setting.X_WB * kinematics::flangePose(arm, pose.q) * setting.X_FT).linear();
+  };
+  CHECK(rotationAngle(fkRotation(seam.approach), fkRotation(seam.waypoints.front())) <= 1e-9);
+  CHECK(rotationAngle(fkRotation(seam.retract), fkRotation(seam.waypoints.back())) <= 1e-9);
   for (std::size_t i = 0; i < poses.size(); ++i) {
     const SolvedPose& pose = *poses[i];
     CAPTURE(i, pose.q.transpose(), pose.spin);
@@ -159,6 +169,7 @@ TEST_CASE("The sample bracket job solves every seam, verified, the same on 1 and
     CHECK(a.branch == b.branch);
     CHECK(a.cost == b.cost);
     CHECK(a.counts.state_checks == b.counts.state_checks);
+    CHECK(describeMargins(a) == describeMargins(b));
     REQUIRE(a.waypoints.size() == b.waypoints.size());
     for (std::size_t i = 0; i < a.waypoints.size(); ++i) {
       CHECK(a.waypoints[i].q == b.waypoints[i].q);
@@ -286,14 +297,25 @@ TEST_CASE("The chosen path costs what brute-force enumeration of every sequence 
   SeamSolverOptions options;
   options.spin_step = 90.0 * kDeg;
   options.max_spin_change = 90.0 * kDeg;
+  // Thresholds raised so that every margin penalty is active on this short
+  // seam in free space (the defaults would leave them all at 0 here).
+  options.wrist_warning_margin = 60.0 * kDeg;
+  options.revolute_limit_warning = 120.0 * kDeg;
+  options.clearance_comfort = 1.5;
+  options.singularity_weight = 0.3;
+  options.limit_weight = 0.2;
+  options.clearance_weight = 0.1;
   const SeamOutcome outcome = bench.solve(path, options);
   REQUIRE(std::holds_alternative<SolvedSeam>(outcome));
   const SolvedSeam& seam = std::get<SolvedSeam>(outcome);
 
   // Brute force: every candidate (branch × spin × turn, in limits, outside
   // the wrist margin, collision-free) of every pose, every sequence in one
-  // branch, spin changing by at most one sample, each step within the joint
-  // bound and collision-free as a joint-space segment.
+  // branch, spin changing by at most one sample (not at all into the first
+  // waypoint and the retract end), each step within the joint bound and
+  // collision-free as a joint-space segment. Cost: weighted joint motion
+  // plus, per pose, the three margin penalties as seam_solver_options.hpp
+  // defines them, the clearance measured directly at every pose.
   const collision::CollisionWorld& world = *bench.world;
   const kinematics::ArmModel& arm = world.arm();
   const kinematics::OrthoParallelSolver ik(arm);
@@ -306,6 +328,22 @@ TEST_CASE("The chosen path costs what brute-force enumeration of every sequence 
     int branch;
     int spin;
     Eigen::Isometry3d X_WT;
+    double penalty;
+  };
+  const auto shortfall = [](double x, double t) { return std::max(0.0, 1.0 - x / t); };
+  const auto posePenalty = [&](const JointVector& q) {
+    const double wrist = std::abs(std::remainder(q[4], kPi));
+    double limit = 0.0;
+    for (int j = 0; j < arm.jointCount(); ++j) {
+      const double margin = std::min(q[j] - arm.joint(j).lower, arm.joint(j).upper - q[j]);
+      limit = std::max(limit, shortfall(margin, options.revolute_limit_warning));
+    }
+    const collision::ClearanceQuery query{1e-4, collision::PairGroup::kCell};
+    const double clearance =
+        std::min(world.clearance(q, *bench.workspace, query).distance, options.clearance_comfort);
+    return options.singularity_weight * shortfall(wrist, options.wrist_warning_margin) +
+           options.limit_weight * limit +
+           options.clearance_weight * shortfall(clearance, options.clearance_comfort);
   };
   std::vector<std::vector<Option>> layers;
   for (const Eigen::Isometry3d& X_WT0 : poses) {
@@ -318,7 +356,7 @@ TEST_CASE("The chosen path costs what brute-force enumeration of every sequence 
         const double wrist = std::abs(std::remainder(solution.q[4], kPi));
         if (wrist < options.wrist_hard_margin) continue;
         if (!world.checkState(solution.q, *bench.workspace).valid()) continue;
-        layer.push_back({solution.q, solution.branch_index, s, X_WT});
+        layer.push_back({solution.q, solution.branch_index, s, X_WT, posePenalty(solution.q)});
       }
     }
     REQUIRE_FALSE(layer.empty());
@@ -345,6 +383,7 @@ TEST_CASE("The chosen path costs what brute-force enumeration of every sequence 
         if (option.branch != prev->branch) continue;
         const int ds = (option.spin - prev->spin + 4) % 4;
         if (ds == 2) continue;
+        if ((l == 1 || l + 1 == layers.size()) && ds != 0) continue;
         const double travel =
             (option.X_WT.translation() - prev->X_WT.translation()).norm() +
             options.rotation_lever * rotationAngle(prev->X_WT.linear(), option.X_WT.linear());
@@ -355,7 +394,7 @@ TEST_CASE("The chosen path costs what brute-force enumeration of every sequence 
         if (!world.checkSegment(prev->q, option.q, *bench.workspace).valid()) continue;
         step = weights.dot((option.q - prev->q).cwiseAbs());
       }
-      extend(l + 1, &option, cost + step);
+      extend(l + 1, &option, cost + step + option.penalty);
     }
   };
   extend(0, nullptr, 0.0);
@@ -363,6 +402,8 @@ TEST_CASE("The chosen path costs what brute-force enumeration of every sequence 
   REQUIRE(sequences > 1);
   // 1e-12: the same sums of the same terms, possibly in another order.
   CHECK(seam.cost == Approx(best).margin(1e-12));
+  // The penalties took part: the cost is more than the motion.
+  CHECK(seam.margins.cost > seam.margins.motion_cost + 0.01);
   verifySolved(seam, path, setting, options, *bench.workspace);
 }
 
@@ -390,12 +431,18 @@ TEST_CASE("A seam through the wrist singularity in its naive branch is avoided b
     path.waypoints.push_back(waypoint);
     if (std::abs(q[4]) < SeamSolverOptions{}.wrist_hard_margin) naive_singular.push_back(i);
   }
-  path.approach = backedOff(path.waypoints.front().X_XT, 0.030);
-  path.retract = backedOff(path.waypoints.back().X_XT, 0.030);
+  // No approach or retract distance: this test is about the seam. The
+  // naive path starts 12° from the singularity, and every spin that crosses
+  // the seam is so near it at the first waypoint that a move along the tool
+  // axis there exceeds the joint bound; the solver once dodged that by
+  // turning the tool during the approach, which it no longer does.
+  path.approach = path.waypoints.front().X_XT;
+  path.retract = path.waypoints.back().X_XT;
   REQUIRE_FALSE(naive_singular.empty());
 
   const SeamSolverOptions options;
   const SeamOutcome outcome = bench.solve(path, options);
+  CAPTURE(std::holds_alternative<SeamReport>(outcome) ? std::get<SeamReport>(outcome).text() : "");
   REQUIRE(std::holds_alternative<SolvedSeam>(outcome));
   const SolvedSeam& seam = std::get<SolvedSeam>(outcome);
   CAPTURE(seam.branch.toString(), seam.waypoints.front().spin / kDeg);

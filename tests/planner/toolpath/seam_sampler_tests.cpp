@@ -2,6 +2,7 @@
 #include "planner/toolpath/seam_sampler.hpp"
 
 #include <catch2/catch.hpp>
+#include <cmath>
 
 #include "kinematics/common/input_error.hpp"
 #include "tests/planner/seam_test_points.hpp"
@@ -27,6 +28,39 @@ TEST_CASE("A straight seam is divided evenly, never coarser than the step", "[pl
   }
   SECTION("an exact multiple of the step gets no extra sample") {
     CHECK(sampleSeam(list, SamplingOptions{0.025, 0.3}).size() == 5);
+  }
+}
+
+TEST_CASE("A sample on a listed point names that point's line, one between names the line before",
+          "[planner][sampler]") {
+  // 200 points 2 mm apart on a straight line sampled every 2 mm (the
+  // default): every sample lands on a listed point, most of them at the
+  // end of the previous segment as the sampler walks the polyline. Also a
+  // list at 0.7 mm spacing, whose points mostly fall between samples.
+  for (const double spacing : {0.002, 0.0007}) {
+    std::vector<Eigen::Vector3d> positions;
+    std::vector<Eigen::Vector3d> normals;
+    for (int i = 0; i < 200; ++i) {
+      positions.emplace_back(spacing * i, 0.0, 0.0);
+      normals.push_back(Eigen::Vector3d::UnitZ());
+    }
+    const SeamPointList list = test::pointList(positions, normals);
+    const std::vector<SeamSample> samples = sampleSeam(list, SamplingOptions{});
+    REQUIRE(samples.size() > 2);
+    int on_points = 0;
+    for (std::size_t k = 0; k < samples.size(); ++k) {
+      const double x = samples[k].p_XP.x();
+      // The listed point at or before the sample, found from its position.
+      const int before = static_cast<int>(std::floor(x / spacing + 1e-6));
+      const bool on_point = std::abs(x - spacing * before) < 1e-9;
+      on_points += on_point;
+      CAPTURE(spacing, k, x, before, on_point);
+      // pointList numbers point i at line i + 2 (after a header).
+      CHECK(samples[k].line == std::min(before, 199) + 2);
+    }
+    // At 2 mm every sample is on a listed point (the case of the report);
+    // at 0.7 mm (199 × 0.7 mm in 70 pieces) only the two ends are.
+    CHECK(on_points == (spacing == 0.002 ? static_cast<int>(samples.size()) : 2));
   }
 }
 
