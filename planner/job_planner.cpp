@@ -4,6 +4,7 @@
 #include <cmath>
 #include <map>
 #include <memory>
+#include <optional>
 #include <set>
 
 #include "collision/collision_workspace.hpp"
@@ -165,6 +166,9 @@ class ProgramAssembler {
   void runSeam(const SolvedSeam& seam, const JobTask& task) {
     const std::string named_set =
         std::visit([](const auto& spec) { return spec.parameter_set; }, task);
+    const auto* seam_spec = std::get_if<SeamSpec>(&task);
+    SeamWorld& seam_world =
+        seamWorld(seam_spec != nullptr ? contactLength(seam_spec->process) : std::nullopt);
     const std::string parameter_set = named_set.empty() ? toString(seam.process) : named_set;
     const std::string branch = seam.branch.toString();
     const SolvedPose* previous = &seam.approach;
@@ -172,7 +176,7 @@ class ProgramAssembler {
     for (std::size_t i = 0; i < seam.waypoints.size(); ++i) {
       const SolvedPose& pose = seam.waypoints[i];
       const double speed = i == 0 ? options_.approach_speed : pose.speed;
-      addLinearMove(seam, branch, *previous, pose, speed, static_cast<int>(i));
+      addLinearMove(seam, seam_world, branch, *previous, pose, speed, static_cast<int>(i));
       previous = &pose;
       if (pose.process_on != process_on) {
         builder_.addEvent(pose.process_on ? ProcessEventKind::kStart : ProcessEventKind::kStop,
@@ -181,7 +185,7 @@ class ProgramAssembler {
       }
     }
     if (process_on) builder_.addEvent(ProcessEventKind::kStop, parameter_set, seam.name);
-    addLinearMove(seam, branch, *previous, seam.retract, options_.approach_speed,
+    addLinearMove(seam, seam_world, branch, *previous, seam.retract, options_.approach_speed,
                   static_cast<int>(seam.waypoints.size()));
     position_ = seam.retract.q;
     position_name_ = seam.name;
@@ -206,11 +210,34 @@ class ProgramAssembler {
 
  private:
   /// The job's clearance is about the cell; self pairs keep the base margin
-  /// of options.collision.
+  /// of options.collision. On free moves no part of the tool may touch a
+  /// workpiece.
   static CellCollisionOptions transitCollisionOptions(const Job& job, const PlanOptions& options) {
     CellCollisionOptions transit_collision = options.collision;
     transit_collision.clearance_margin = job.transit.clearance;
+    transit_collision.contact_length.reset();
     return transit_collision;
+  }
+
+  /// Where a seam's moves measure their clearance: the transit world's
+  /// margins with the seam's contact part (the wire stick-out, the bead), so
+  /// that the clearance is that of the tool without it.
+  struct SeamWorld {
+    SeamWorld(const Cell& cell, const Tool& tool, const CellCollisionOptions& options)
+        : world(buildCellCollisionWorld(cell, tool, options)), workspace(world) {}
+    const collision::CollisionWorld world;
+    collision::CollisionWorkspace workspace;
+  };
+
+  /// The seam world of one contact length, built on first use.
+  SeamWorld& seamWorld(const std::optional<double>& contact_length) {
+    std::unique_ptr<SeamWorld>& slot = seam_worlds_[contact_length];
+    if (!slot) {
+      CellCollisionOptions with_contact = transitCollisionOptions(job_, options_);
+      with_contact.contact_length = contact_length;
+      slot = std::make_unique<SeamWorld>(job_.cell, tool_, with_contact);
+    }
+    return *slot;
   }
 
   void addJointMove(const JointVector& q, double duration) {
@@ -225,8 +252,8 @@ class ProgramAssembler {
     builder_.addMotion(record, world_, workspace_);
   }
 
-  void addLinearMove(const SolvedSeam& seam, const std::string& branch, const SolvedPose& from,
-                     const SolvedPose& to, double speed, int waypoint) {
+  void addLinearMove(const SolvedSeam& seam, SeamWorld& seam_world, const std::string& branch,
+                     const SolvedPose& from, const SolvedPose& to, double speed, int waypoint) {
     ProcessSpeed programmed;
     programmed.tcp_speed = speed;
     programmed.orientation_speed = options_.orientation_speed;
@@ -245,7 +272,7 @@ class ProgramAssembler {
     for (const LoweredSpeed& lowered : timing.lowered) {
       result_.speed_limits.push_back({seam.name, waypoint, lowered});
     }
-    builder_.addMotion(record, world_, workspace_);
+    builder_.addMotion(record, seam_world.world, seam_world.workspace);
   }
 
   const Job& job_;
@@ -255,6 +282,7 @@ class ProgramAssembler {
   const collision::CollisionWorld world_;
   collision::CollisionWorkspace workspace_;
   const TransitPlanner transit_planner_;
+  std::map<std::optional<double>, std::unique_ptr<SeamWorld>> seam_worlds_;
   const unsigned seed_;
   Program program_;
   ProgramBuilder builder_;
