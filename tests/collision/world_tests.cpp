@@ -267,6 +267,15 @@ TEST_CASE("Record clearance is the distance of the tool without its contact part
     CHECK(strict.checkState(joints({NozzleCell::kQ}), strict_workspace).status ==
           StateStatus::kInCollision);
   }
+  SECTION("without the wall, the nozzle's face 20 mm above the plate is nearest") {
+    // The whole 15 mm stick-out (the modelled wire) is exempt, not only the
+    // ball at the TCP: the wire's upper end is at 15 mm.
+    cell.description.bodies[0].shapes.pop_back();
+    const CollisionWorld open = cell.build();
+    CollisionWorkspace open_workspace(open);
+    CHECK(open.clearance(joints({NozzleCell::kQ}), open_workspace, to_cell).distance ==
+          Approx(0.020).margin(0.0001));
+  }
   SECTION("moved 1 mm further from the wall, the nozzle is 3 mm from it") {
     // The nozzle's face stays 20 mm above the plate: the wall is nearest.
     const Clearance moved = world.clearance(joints({NozzleCell::kQ - 0.001}), workspace, to_cell);
