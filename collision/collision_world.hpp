@@ -36,11 +36,13 @@ struct WorldModel;
 ///   carries it;
 /// - arm links and the tool against every cell body, except the arm base
 ///   (it does not move, so a conflict of the base with the cell is a matter
-///   of the cell layout, not of any state); against a workpiece the tool
-///   counts only outside the ball of radius ToolDescription::tip_allowance
-///   about the TCP, so the tip may work at the seam while the rest of the
-///   tool, and every link, may not touch it (the ball is cut from the tool
-///   mesh conservatively: up to an eighth of its radius less is exempt);
+///   of the cell layout, not of any state); against a workpiece a tool with
+///   a ToolDescription::tip_contact counts only outside the capsule of that
+///   contact (the wire stick-out or bead with its allowance), so the wire
+///   may work at the seam while the rest of the tool, and every link, keep
+///   the margin (the capsule is cut from the tool mesh conservatively: up to
+///   an eighth of its radius less is exempt); a tool without one counts
+///   whole;
 /// - never cell bodies against each other (they do not move relative to
 ///   each other during a program), nor any pair in
 ///   WorldDescription::allowed_pairs.
@@ -59,7 +61,8 @@ class CollisionWorld {
   /// Loads meshes and builds the world. Throws tw::InputError for a mesh
   /// problem (see loadMesh), a duplicate or empty body name, an unknown
   /// fixture, an unknown name in allowed_pairs, a non-positive or
-  /// non-finite margin (cell or self) or tip allowance, or a primitive with
+  /// non-finite margin (cell or self) or tip allowance, a negative or
+  /// non-finite tip contact length, or a primitive with
   /// non-positive size.
   CollisionWorld(const kinematics::ArmModel& arm, const WorldDescription& description);
   CollisionWorld(CollisionWorld&&) noexcept;

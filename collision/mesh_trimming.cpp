@@ -15,27 +15,29 @@ double longestEdge(const Corners& t) {
                              (t.a - t.c).squaredNorm()}));
 }
 
-void trim(const Corners& t, const Eigen::Vector3d& center, double radius, double edge_limit,
-          TriangleMesh& out) {
-  const double r2 = radius * radius;
-  const bool a_in = (t.a - center).squaredNorm() <= r2;
-  const bool b_in = (t.b - center).squaredNorm() <= r2;
-  const bool c_in = (t.c - center).squaredNorm() <= r2;
-  if (a_in && b_in && c_in) return;
+struct Capsule {
+  Eigen::Vector3d a, b;
+  double radius;
+  bool holds(const Eigen::Vector3d& p) const { return distanceToSegment(p, a, b) <= radius; }
+};
+
+void trim(const Corners& t, const Capsule& capsule, double edge_limit, TriangleMesh& out) {
+  if (capsule.holds(t.a) && capsule.holds(t.b) && capsule.holds(t.c)) return;
   // A bounding sphere about the centroid tells whether the ball may cut it.
   const Eigen::Vector3d centroid = (t.a + t.b + t.c) / 3.0;
   const double reach = std::sqrt(std::max({(t.a - centroid).squaredNorm(),
                                            (t.b - centroid).squaredNorm(),
                                            (t.c - centroid).squaredNorm()}));
-  const bool may_cross = (centroid - center).norm() - reach < radius;
+  const bool may_cross =
+      distanceToSegment(centroid, capsule.a, capsule.b) - reach < capsule.radius;
   if (may_cross && longestEdge(t) > edge_limit) {
     const Eigen::Vector3d ab = 0.5 * (t.a + t.b);
     const Eigen::Vector3d bc = 0.5 * (t.b + t.c);
     const Eigen::Vector3d ca = 0.5 * (t.c + t.a);
-    trim({t.a, ab, ca}, center, radius, edge_limit, out);
-    trim({ab, t.b, bc}, center, radius, edge_limit, out);
-    trim({ca, bc, t.c}, center, radius, edge_limit, out);
-    trim({ab, bc, ca}, center, radius, edge_limit, out);
+    trim({t.a, ab, ca}, capsule, edge_limit, out);
+    trim({ab, t.b, bc}, capsule, edge_limit, out);
+    trim({ca, bc, t.c}, capsule, edge_limit, out);
+    trim({ab, bc, ca}, capsule, edge_limit, out);
     return;
   }
   const int first = static_cast<int>(out.vertices.size());
@@ -47,14 +49,22 @@ void trim(const Corners& t, const Eigen::Vector3d& center, double radius, double
 
 }  // namespace
 
-TriangleMesh meshOutsideBall(const TriangleMesh& mesh, const Eigen::Vector3d& center,
-                             double radius) {
+double distanceToSegment(const Eigen::Vector3d& p, const Eigen::Vector3d& a,
+                         const Eigen::Vector3d& b) {
+  const Eigen::Vector3d ab = b - a;
+  const double length2 = ab.squaredNorm();
+  const double s = length2 > 0.0 ? std::clamp((p - a).dot(ab) / length2, 0.0, 1.0) : 0.0;
+  return (p - (a + s * ab)).norm();
+}
+
+TriangleMesh meshOutsideCapsule(const TriangleMesh& mesh, const Eigen::Vector3d& a,
+                                const Eigen::Vector3d& b, double radius) {
   TriangleMesh out;
   out.source = mesh.source;
   const double edge_limit = radius / 8.0;
   for (const std::array<int, 3>& triangle : mesh.triangles) {
     trim({mesh.vertices[triangle[0]], mesh.vertices[triangle[1]], mesh.vertices[triangle[2]]},
-         center, radius, edge_limit, out);
+         {a, b, radius}, edge_limit, out);
   }
   weldIdenticalVertices(out);
   return out;

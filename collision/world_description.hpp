@@ -12,7 +12,7 @@ namespace tw::collision {
 
 /// What a cell body is to the checks: an obstacle counts against every part
 /// of the arm and tool; a workpiece counts against the arm and the tool,
-/// except the tool tip near the TCP (see ToolDescription::tip_allowance).
+/// except the tool's contact part (see ToolDescription::tip_contact).
 enum class BodyRole { kObstacle, kWorkpiece };
 
 const char* toString(BodyRole role);
@@ -34,16 +34,30 @@ struct CellBody {
   std::vector<kinematics::LinkShape> shapes;
 };
 
+/// The part of a tool that works at the seam and may touch a workpiece: the
+/// wire stick-out of a welding torch (from the TCP, the wire end, back to
+/// the contact tip) or the bead of a dispensing nozzle (from the TCP on the
+/// surface back to the nozzle's tip), with an allowance about it. Lengths [m].
+struct TipContact {
+  /// From the TCP back along the tool axis, ≥ 0.
+  double length = 0.0;
+  /// The tip allowance: how far from that segment the tool may touch, > 0.
+  double radius = 0.003;
+};
+
 /// The tool on the flange. Shape poses are in the flange frame F.
 struct ToolDescription {
   std::string name = "tool";
   std::vector<kinematics::LinkShape> shapes;
-  /// Tool centre point in the flange frame.
+  /// Tool centre point in the flange frame; its z axis points out of the
+  /// tool towards the work.
   Eigen::Isometry3d X_FT = Eigen::Isometry3d::Identity();
-  /// Radius [m] of the ball about the TCP inside which the tool may touch a
-  /// workpiece (a torch nozzle or glue tip works at the seam). Contact of
-  /// the rest of the tool, or of any arm link, with a workpiece still counts.
-  double tip_allowance = 0.02;
+  /// The part of the tool that may touch a workpiece, if any: every point
+  /// within `radius` of the segment from the TCP back `length` along the
+  /// TCP's −z axis. nullopt: no part of the tool may (a spray gun). Contact
+  /// of the rest of the tool, or of any arm link, with a workpiece counts,
+  /// and the tool keeps the cell margin from it.
+  std::optional<TipContact> tip_contact;
   /// Divisions around the axis when a primitive tool shape is turned into a
   /// mesh so that its tip can be cut away.
   int tessellation_segments = 32;

@@ -231,9 +231,13 @@ std::shared_ptr<const WorldModel> buildWorldModel(const kinematics::ArmModel& ar
   int tool_body = -1;
   if (description.tool) {
     const ToolDescription& tool = *description.tool;
-    if (!(tool.tip_allowance > 0.0) || !std::isfinite(tool.tip_allowance)) {
-      throw InputError("collision world: tool \"" + tool.name +
-                       "\" needs a positive tip allowance");
+    if (tool.tip_contact) {
+      const TipContact& contact = *tool.tip_contact;
+      if (!(contact.radius > 0.0) || !std::isfinite(contact.radius) ||
+          !(contact.length >= 0.0) || !std::isfinite(contact.length)) {
+        throw InputError("collision world: tool \"" + tool.name +
+                         "\" needs a positive tip allowance and a non-negative contact length");
+      }
     }
     tool_body = addBody(*model, tool.name);
     const Eigen::Isometry3d& X_LF = arm.flangeInLastLink();
@@ -245,6 +249,7 @@ std::shared_ptr<const WorldModel> buildWorldModel(const kinematics::ArmModel& ar
       piece.lever = leverArms(arm, joints, factory.reach(on_link));
       model->moving.push_back(std::move(piece));
 
+      if (!tool.tip_contact) continue;
       const TriangleMesh part = factory.meshInParent(on_link, tool.tessellation_segments);
       const int offset = static_cast<int>(whole.vertices.size());
       whole.vertices.insert(whole.vertices.end(), part.vertices.begin(), part.vertices.end());
@@ -252,19 +257,26 @@ std::shared_ptr<const WorldModel> buildWorldModel(const kinematics::ArmModel& ar
         whole.triangles.push_back({{t[0] + offset, t[1] + offset, t[2] + offset}});
       }
     }
-    const Eigen::Vector3d p_L_tcp = X_LF * tool.X_FT.translation();
-    const TriangleMesh beyond = meshOutsideBall(whole, p_L_tcp, tool.tip_allowance);
-    if (!beyond.triangles.empty()) {
-      Piece piece;
-      piece.body = tool_body;
-      piece.kind = PieceKind::kToolBeyondTip;
-      piece.frame = joints;
-      piece.geometry = makeMeshGeometry(beyond);
-      piece.p_S_probe = beyond.vertices.front();
-      double farthest = 0.0;
-      for (const Eigen::Vector3d& v : beyond.vertices) farthest = std::max(farthest, v.norm());
-      piece.lever = leverArms(arm, joints, farthest);
-      model->moving.push_back(std::move(piece));
+    if (tool.tip_contact) {
+      model->tool_tip_contact = true;
+      // The contact part runs from the TCP back along the tool's −z axis.
+      const Eigen::Isometry3d X_LT = X_LF * tool.X_FT;
+      const Eigen::Vector3d p_L_tcp = X_LT.translation();
+      const Eigen::Vector3d p_L_back = X_LT * Eigen::Vector3d(0, 0, -tool.tip_contact->length);
+      const TriangleMesh beyond =
+          meshOutsideCapsule(whole, p_L_tcp, p_L_back, tool.tip_contact->radius);
+      if (!beyond.triangles.empty()) {
+        Piece piece;
+        piece.body = tool_body;
+        piece.kind = PieceKind::kToolBeyondTip;
+        piece.frame = joints;
+        piece.geometry = makeMeshGeometry(beyond);
+        piece.p_S_probe = beyond.vertices.front();
+        double farthest = 0.0;
+        for (const Eigen::Vector3d& v : beyond.vertices) farthest = std::max(farthest, v.norm());
+        piece.lever = leverArms(arm, joints, farthest);
+        model->moving.push_back(std::move(piece));
+      }
     }
   }
 

@@ -16,8 +16,8 @@ namespace tw::collision::detail {
 /// Which frame a piece hangs from and which rules apply to it.
 enum class PieceKind {
   kLink,           ///< on an arm link
-  kTool,           ///< the whole tool, on the flange; checked against all but workpieces
-  kToolBeyondTip,  ///< the tool without its tip zone; checked against workpieces only
+  kTool,           ///< the whole tool, on the flange; against workpieces only without a tip contact
+  kToolBeyondTip,  ///< the tool without its tip contact zone; checked against workpieces only
   kCell,           ///< a cell body in the world or a fixture frame
 };
 
@@ -71,6 +71,9 @@ struct WorldModel {
   /// allowed[a * body_count + b]: the pair (a, b) is never checked.
   std::vector<char> allowed;
   std::vector<std::string> notes;
+  /// The tool has a tip contact (ToolDescription::tip_contact): against
+  /// workpieces its kToolBeyondTip piece (if any is left) stands for it.
+  bool tool_tip_contact = false;
 
   bool isAllowed(int a, int b) const {
     return allowed[static_cast<std::size_t>(a) * body_names.size() + b] != 0;
@@ -84,7 +87,8 @@ struct WorldModel {
     if (other.kind == PieceKind::kCell) {
       if (moving.kind == PieceKind::kLink) return moving.frame != 0;
       const bool workpiece = other.role == BodyRole::kWorkpiece;
-      return moving.kind == PieceKind::kTool ? !workpiece : workpiece;
+      if (moving.kind == PieceKind::kTool) return !workpiece || !tool_tip_contact;
+      return workpiece;
     }
     // Between moving pieces the whole tool stands for the tool.
     return a.kind != PieceKind::kToolBeyondTip && b.kind != PieceKind::kToolBeyondTip;

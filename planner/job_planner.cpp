@@ -4,6 +4,7 @@
 #include <cmath>
 #include <map>
 #include <memory>
+#include <optional>
 #include <set>
 
 #include "collision/collision_workspace.hpp"
@@ -131,8 +132,6 @@ class ProgramAssembler {
         result_(result),
         world_(buildCellCollisionWorld(job.cell, tool, transitCollisionOptions(job, options))),
         workspace_(world_),
-        seam_world_(buildCellCollisionWorld(job.cell, tool, options.collision)),
-        seam_workspace_(seam_world_),
         X_BW_(job.cell.frames.X_W(job.cell.arm_frame).inverse()),
         transit_planner_(world_),
         seed_(options.seed.value_or(job.transit.seed)),
@@ -189,16 +188,27 @@ class ProgramAssembler {
   bool runSeam(const SolvedSeam& seam, const JobTask& task) {
     const std::string named_set =
         std::visit([](const auto& spec) { return spec.parameter_set; }, task);
+    const auto* seam_spec = std::get_if<SeamSpec>(&task);
+    SeamWorld& seam_world =
+        seamWorld(seam_spec != nullptr ? contactLength(seam_spec->process) : std::nullopt);
     const std::string parameter_set = named_set.empty() ? toString(seam.process) : named_set;
     const std::string branch = seam.branch.toString();
 
+    // The moves are checked in the world the seam was solved in: the cell
+    // margin of options.collision, with the seam's contact part.
+    CellCollisionOptions solver_collision = options_.collision;
+    solver_collision.contact_length =
+        seam_spec != nullptr ? contactLength(seam_spec->process) : std::nullopt;
+    const collision::CollisionWorld solver_world =
+        buildCellCollisionWorld(job_.cell, tool_, solver_collision);
+    collision::CollisionWorkspace solver_workspace(solver_world);
     FollowSetting follow;
-    follow.world = &seam_world_;
+    follow.world = &solver_world;
     follow.X_BR = X_BW_ * job_.cell.frames.X_W(seam.frame);
     follow.X_FT = tool_.X_FT;
     follow.branch_index = seam.branch.index();
     MoveFollower follower(follow, followLimits(options_.solver));
-    auto compacted = compactSolvedSeam(seam, options_.moves, follower, seam_workspace_);
+    auto compacted = compactSolvedSeam(seam, options_.moves, follower, solver_workspace);
     if (const SeamMoveFailure* failure = std::get_if<SeamMoveFailure>(&compacted)) {
       result_.move_failures.push_back({seam.name, failure->waypoint, failure->failure});
       return false;
@@ -213,7 +223,8 @@ class ProgramAssembler {
       result_.speed_limits.push_back({seam.name, moves[lowered.segment].move.end, lowered});
     }
 
-    addLinearMove(seam, branch, seam.approach, seam.waypoints.front(), options_.approach_speed, 0);
+    addLinearMove(seam, seam_world, branch, seam.approach, seam.waypoints.front(),
+                  options_.approach_speed, 0);
     bool process_on = false;
     const auto switch_process = [&](const SolvedPose& pose) {
       if (pose.process_on == process_on) return;
@@ -239,11 +250,11 @@ class ProgramAssembler {
       record.duration = timing.durations[k];
       record.seam = seam.name;
       record.branch = branch;
-      builder_.addMotion(record, world_, workspace_);
+      builder_.addMotion(record, seam_world.world, seam_world.workspace);
       switch_process(target);
     }
     if (process_on) builder_.addEvent(ProcessEventKind::kStop, parameter_set, seam.name);
-    addLinearMove(seam, branch, seam.waypoints.back(), seam.retract, options_.approach_speed,
+    addLinearMove(seam, seam_world, branch, seam.waypoints.back(), seam.retract, options_.approach_speed,
                   static_cast<int>(seam.waypoints.size()));
     // No planner warning per near-singular waypoint: each of its records
     // carries the singularity margin, which the review warns about once.
@@ -265,11 +276,34 @@ class ProgramAssembler {
 
  private:
   /// The job's clearance is about the cell; self pairs keep the base margin
-  /// of options.collision.
+  /// of options.collision. On free moves no part of the tool may touch a
+  /// workpiece.
   static CellCollisionOptions transitCollisionOptions(const Job& job, const PlanOptions& options) {
     CellCollisionOptions transit_collision = options.collision;
     transit_collision.clearance_margin = job.transit.clearance;
+    transit_collision.contact_length.reset();
     return transit_collision;
+  }
+
+  /// Where a seam's moves measure their clearance: the transit world's
+  /// margins with the seam's contact part (the wire stick-out, the bead), so
+  /// that the clearance is that of the tool without it.
+  struct SeamWorld {
+    SeamWorld(const Cell& cell, const Tool& tool, const CellCollisionOptions& options)
+        : world(buildCellCollisionWorld(cell, tool, options)), workspace(world) {}
+    const collision::CollisionWorld world;
+    collision::CollisionWorkspace workspace;
+  };
+
+  /// The seam world of one contact length, built on first use.
+  SeamWorld& seamWorld(const std::optional<double>& contact_length) {
+    std::unique_ptr<SeamWorld>& slot = seam_worlds_[contact_length];
+    if (!slot) {
+      CellCollisionOptions with_contact = transitCollisionOptions(job_, options_);
+      with_contact.contact_length = contact_length;
+      slot = std::make_unique<SeamWorld>(job_.cell, tool_, with_contact);
+    }
+    return *slot;
   }
 
   void addJointMove(const JointVector& q, double duration) {
@@ -284,8 +318,8 @@ class ProgramAssembler {
     builder_.addMotion(record, world_, workspace_);
   }
 
-  void addLinearMove(const SolvedSeam& seam, const std::string& branch, const SolvedPose& from,
-                     const SolvedPose& to, double speed, int waypoint) {
+  void addLinearMove(const SolvedSeam& seam, SeamWorld& seam_world, const std::string& branch,
+                     const SolvedPose& from, const SolvedPose& to, double speed, int waypoint) {
     ProcessSpeed programmed;
     programmed.tcp_speed = speed;
     programmed.orientation_speed = options_.orientation_speed;
@@ -304,7 +338,7 @@ class ProgramAssembler {
     for (const LoweredSpeed& lowered : timing.lowered) {
       result_.speed_limits.push_back({seam.name, waypoint, lowered});
     }
-    builder_.addMotion(record, world_, workspace_);
+    builder_.addMotion(record, seam_world.world, seam_world.workspace);
   }
 
   const Job& job_;
@@ -313,12 +347,9 @@ class ProgramAssembler {
   PlanResult& result_;
   const collision::CollisionWorld world_;
   collision::CollisionWorkspace workspace_;
-  /// The world the seams were solved in (the cell margin of options.collision):
-  /// the compacted moves are checked against it.
-  const collision::CollisionWorld seam_world_;
-  collision::CollisionWorkspace seam_workspace_;
   const Eigen::Isometry3d X_BW_;
   const TransitPlanner transit_planner_;
+  std::map<std::optional<double>, std::unique_ptr<SeamWorld>> seam_worlds_;
   const unsigned seed_;
   Program program_;
   ProgramBuilder builder_;

@@ -31,7 +31,9 @@ collision::WorldDescription cellWorldDescription(const Cell& cell, const Tool& t
   tool_description.name = tool.name;
   tool_description.shapes = tool.shapes;
   tool_description.X_FT = tool.X_FT;
-  tool_description.tip_allowance = options.tip_allowance;
+  if (options.contact_length) {
+    tool_description.tip_contact = collision::TipContact{*options.contact_length, tool.tip_allowance};
+  }
   description.tool = std::move(tool_description);
   return description;
 }

@@ -1,5 +1,7 @@
 #pragma once
 
+#include <optional>
+
 #include "collision/collision_world.hpp"
 #include "collision/world_description.hpp"
 #include "planner/cell/cell.hpp"
@@ -19,19 +21,21 @@ struct CellCollisionOptions {
   /// with the cell margin. 10 mm: common practice, no source (the link
   /// meshes or primitives only approximate the castings and hose package).
   double self_margin = 0.010;
-  /// Radius of the ball about the TCP inside which the tool may touch a
-  /// workpiece. 40 mm: a torch nozzle or bead tip that works at the seam is
-  /// a few centimetres long (common practice, no source); fixtures and
-  /// obstacles count against the whole tool regardless.
-  double tip_allowance = 0.040;
+  /// Length of the tool's contact part from the TCP back along its axis
+  /// (contactLength() of the process: the wire stick-out, the bead); the
+  /// tool may touch a workpiece within Tool::tip_allowance of it. nullopt:
+  /// no part of the tool may (paint, free moves). Fixtures and obstacles
+  /// count against the whole tool regardless.
+  std::optional<double> contact_length;
 };
 
 /// The collision description of `cell` with `tool` on the flange: the arm
 /// base at X_WB = frames.X_W(arm_frame); every frame that carries a body
 /// becomes a fixture frame (name = frame name, pose X_W of that frame), so
 /// that CollisionWorld::withFixturePose moves it; "world" bodies stay in the
-/// world. Workpieces keep their role (the tool tip may touch them near the
-/// TCP); fixtures and obstacles both count against the whole arm and tool.
+/// world. Workpieces keep their role (the tool's contact part, if
+/// options.contact_length says it has one, may touch them); fixtures and
+/// obstacles both count against the whole arm and tool.
 /// Pure; thread-safe.
 collision::WorldDescription cellWorldDescription(const Cell& cell, const Tool& tool,
                                                  const CellCollisionOptions& options = {});

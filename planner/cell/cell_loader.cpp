@@ -78,7 +78,7 @@ class CellFileReader {
     std::set<std::string> names;
     for (const XMLElement* element = root.FirstChildElement("tool"); element != nullptr;
          element = element->NextSiblingElement("tool")) {
-      file_.allowOnly(*element, {"name", "symmetric", "spin-min", "spin-max"},
+      file_.allowOnly(*element, {"name", "symmetric", "spin-min", "spin-max", "tip-allowance"},
                       {"tcp", "mesh", "box", "cylinder", "sphere", "capsule"});
       Tool tool;
       tool.name = file_.text(*element, "name");
@@ -94,6 +94,7 @@ class CellFileReader {
       if (tool.spin.max - tool.spin.min > 2.0 * kPi + 1e-12) {
         file_.fail(*element, "the spin range may span at most 360 degrees");
       }
+      tool.tip_allowance = readLengthOr(file_, *element, "tip-allowance", tool.tip_allowance);
       const XMLElement& tcp = file_.child(*element, "tcp");
       file_.allowOnly(tcp, {"xyz", "rpy", "quaternion"});
       tool.X_FT = readPose(file_, tcp);

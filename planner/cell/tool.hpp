@@ -21,11 +21,18 @@ struct SpinRange {
 /// An end effector mounted on the flange.
 struct Tool {
   std::string name;
-  /// Pose of the tool centre point T in the flange frame F [m]. The tool's
-  /// z axis is its working axis, pointing out of the tool towards the work.
+  /// Pose of the tool centre point T in the flange frame F [m]: where the
+  /// process meets the part (a torch's wire end, a bead's foot, a spray
+  /// gun's aim point on the surface). The tool's z axis is its working
+  /// axis, pointing out of the tool towards the work.
   Eigen::Isometry3d X_FT = Eigen::Isometry3d::Identity();
   /// Collision bodies of the tool, posed in the flange frame F.
   std::vector<kinematics::LinkShape> shapes;
+  /// How far [m] from its wire stick-out or bead the tool may touch a
+  /// workpiece (collision::TipContact::radius; the length comes from the
+  /// job's process). 3 mm: a wire's wander about its axis (common practice,
+  /// no source).
+  double tip_allowance = 0.003;
   /// True when the process does not care about rotation about the tool axis
   /// (a welding torch, a round spray): the spin is then a free choice.
   bool symmetric = false;

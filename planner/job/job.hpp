@@ -23,7 +23,8 @@ struct SeamSpec {
   SeamPointList points;
   bool reversed = false;
   ProcessParameters process;
-  /// TCP speed on the seam [m/s], for points without their own speed.
+  /// Speed of the point on the seam [m/s] (the TCP is that point), for
+  /// points without their own speed.
   double speed = 0.0;
   /// Approach and retract distances along the tool axis [m]. 30 mm: inside
   /// the 10–50 mm of common practice (domain-facts §1, from memory).

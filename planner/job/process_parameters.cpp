@@ -24,6 +24,16 @@ const char* toString(TravelTilt tilt) {
   return "unknown";
 }
 
+std::optional<double> contactLength(const ProcessParameters& parameters) {
+  if (const auto* weld = std::get_if<WeldParameters>(&parameters)) {
+    return weld->contact_tip_distance;
+  }
+  if (const auto* dispense = std::get_if<DispenseParameters>(&parameters)) {
+    return dispense->stand_off;
+  }
+  return std::nullopt;
+}
+
 ProcessKind kindOf(const ProcessParameters& parameters) {
   switch (parameters.index()) {
     case 0:

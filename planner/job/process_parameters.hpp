@@ -32,15 +32,17 @@ struct WeldParameters {
   double travel_angle = 10.0 * kPi / 180.0;
   /// Push by default: common practice, no source (either is used).
   TravelTilt tilt = TravelTilt::kPush;
-  /// Contact-tip-to-work distance: the TCP (contact tip) stays this far back
-  /// from the seam point along the torch axis. 15 mm: short-circuit transfer,
-  /// domain-facts §1 (common practice, no source).
+  /// Contact-tip-to-work distance: the contact tip stays this far back from
+  /// the TCP (the wire end, on the seam) along the torch axis; the wire
+  /// stick-out between them may touch the part. 15 mm: short-circuit
+  /// transfer, domain-facts §1 (common practice, no source).
   double contact_tip_distance = 0.015;
 };
 
 /// A paint stroke along a seam: gun along the negative surface normal.
 struct PaintParameters {
-  /// Gun-to-surface distance [m]. 200 mm: NAVAIR 01-1A-509-2 §
+  /// Gun-to-surface distance [m]: the gun tip is this far back from the TCP
+  /// (its aim point on the surface). 200 mm: NAVAIR 01-1A-509-2 §
   /// (150–250 mm, domain-facts §2).
   double stand_off = 0.200;
 };
@@ -48,13 +50,19 @@ struct PaintParameters {
 /// Dispensing or sealing a bead: nozzle normal to the surface (the bisector
 /// of the two faces of a fillet) at a stand-off.
 struct DispenseParameters {
-  /// Nozzle-to-surface distance [m], > 0. No default: it depends on the
-  /// bead and nozzle, so the job must say it.
+  /// Nozzle-to-surface distance [m], > 0: the nozzle tip is this far back
+  /// from the TCP (the bead's foot on the surface). No default: it depends on
+  /// the bead and nozzle, so the job must say it.
   double stand_off = 0.0;
 };
 
 using ProcessParameters = std::variant<WeldParameters, PaintParameters, DispenseParameters>;
 
 ProcessKind kindOf(const ProcessParameters& parameters);
+
+/// Length [m] of the tool part that may touch the workpiece, from the TCP
+/// back along the tool axis: a weld's contact-tip distance (the wire
+/// stick-out), a bead's stand-off; nullopt for paint (nothing may touch).
+std::optional<double> contactLength(const ProcessParameters& parameters);
 
 }  // namespace tw::planner

@@ -70,6 +70,7 @@ class ProgramReplay {
  private:
   struct ToolWorlds {
     const Tool* tool = nullptr;
+    std::optional<double> contact_length;
     std::unique_ptr<collision::CollisionWorld> process;
     std::unique_ptr<collision::CollisionWorld> transit;
     std::unique_ptr<collision::CollisionWorkspace> process_workspace;
@@ -82,9 +83,21 @@ class ProgramReplay {
     problems_.push_back(std::move(problem));
   }
 
-  ToolWorlds& worldsFor(const std::string& tool_name) {
+  /// The contact part (wire stick-out, bead) of the job's seam `name`; none
+  /// for moves outside seams and for paint.
+  std::optional<double> contactLengthOf(const std::string& seam) const {
+    for (const JobTask& task : job_.tasks) {
+      const auto* spec = std::get_if<SeamSpec>(&task);
+      if (spec != nullptr && spec->name == seam) return contactLength(spec->process);
+    }
+    return std::nullopt;
+  }
+
+  ToolWorlds& worldsFor(const MotionRecord& motion) {
+    const std::string& tool_name = motion.tool;
+    const std::optional<double> contact_length = contactLengthOf(motion.seam);
     for (ToolWorlds& worlds : tools_) {
-      if (worlds.tool->name == tool_name) return worlds;
+      if (worlds.tool->name == tool_name && worlds.contact_length == contact_length) return worlds;
     }
     const Tool* tool = job_.cell.findTool(tool_name);
     if (tool == nullptr) {
@@ -93,10 +106,14 @@ class ProgramReplay {
     }
     ToolWorlds worlds;
     worlds.tool = tool;
+    worlds.contact_length = contact_length;
+    CellCollisionOptions process = options_.collision;
+    process.contact_length = contact_length;
     worlds.process = std::make_unique<collision::CollisionWorld>(
-        buildCellCollisionWorld(job_.cell, *tool, options_.collision));
+        buildCellCollisionWorld(job_.cell, *tool, process));
     CellCollisionOptions transit = options_.collision;
     transit.clearance_margin = job_.transit.clearance;
+    transit.contact_length.reset();
     worlds.transit = std::make_unique<collision::CollisionWorld>(
         buildCellCollisionWorld(job_.cell, *tool, transit));
     worlds.process_workspace = std::make_unique<collision::CollisionWorkspace>(*worlds.process);
@@ -144,7 +161,7 @@ class ProgramReplay {
   /// controller solves in the branch of the stored joints (nullopt when it
   /// cannot, reported).
   std::optional<JointVector> checkTarget(const MotionRecord& motion) {
-    ToolWorlds& worlds = worldsFor(motion.tool);
+    ToolWorlds& worlds = worldsFor(motion);
     checkJoints(motion.q, "target:");
     if (motion.kind == MotionKind::kJointMove) {
       checkStoredPose(motion.q, motion.X_RT, motion, *worlds.tool, "target");
@@ -192,7 +209,7 @@ class ProgramReplay {
   }
 
   void checkJointMove(const JointVector& from, const MotionRecord& motion) {
-    ToolWorlds& worlds = worldsFor(motion.tool);
+    ToolWorlds& worlds = worldsFor(motion);
     const collision::SegmentResult segment =
         worlds.transit->checkSegment(from, motion.q, *worlds.transit_workspace);
     if (!segment.valid()) {
@@ -211,7 +228,7 @@ class ProgramReplay {
   }
 
   void checkCartesianMove(const JointVector& from, const JointVector& to, const MotionRecord& motion) {
-    ToolWorlds& worlds = worldsFor(motion.tool);
+    ToolWorlds& worlds = worldsFor(motion);
     const std::optional<int> branch = branchOf(to);
     if (!branch) {
       report("the target joints are not a solution of the arm's inverse kinematics");

@@ -5,7 +5,9 @@
 #include <map>
 #include <memory>
 #include <mutex>
+#include <optional>
 #include <thread>
+#include <utility>
 
 #include "kinematics/common/input_error.hpp"
 #include "planner/toolpath/tool_path_builder.hpp"
@@ -47,12 +49,17 @@ JobSolution solveJob(const Job& job, const SeamSolverOptions& options,
                            cell.arm.name() + "' has " + std::to_string(cell.arm.jointCount()));
     }
   }
-  // One world per tool, built before the workers start (the expensive part).
-  std::map<std::string, std::unique_ptr<collision::CollisionWorld>> worlds;
+  // One world per tool and contact length (the part of the tool that may
+  // touch the workpiece), built before the workers start (the expensive part).
+  using WorldKey = std::pair<std::string, std::optional<double>>;
+  const auto keyOf = [](const ToolPath& path) { return WorldKey(path.tool, path.contact_length); };
+  std::map<WorldKey, std::unique_ptr<collision::CollisionWorld>> worlds;
   for (const ToolPath& path : paths) {
-    if (worlds.count(path.tool) == 0) {
-      worlds.emplace(path.tool, std::make_unique<collision::CollisionWorld>(buildCellCollisionWorld(
-                                    cell, *cell.findTool(path.tool), collision)));
+    if (worlds.count(keyOf(path)) == 0) {
+      CellCollisionOptions with_contact = collision;
+      with_contact.contact_length = path.contact_length;
+      worlds.emplace(keyOf(path), std::make_unique<collision::CollisionWorld>(buildCellCollisionWorld(
+                                      cell, *cell.findTool(path.tool), with_contact)));
     }
   }
   JobSolution solution;
@@ -63,11 +70,11 @@ JobSolution solveJob(const Job& job, const SeamSolverOptions& options,
   std::mutex step_mutex;
   const auto work = [&]() {
     try {
-      std::map<std::string, std::unique_ptr<collision::CollisionWorkspace>> workspaces;
+      std::map<WorldKey, std::unique_ptr<collision::CollisionWorkspace>> workspaces;
       for (std::size_t i = next++; i < paths.size(); i = next++) {
         const ToolPath& path = paths[i];
-        const collision::CollisionWorld& world = *worlds.at(path.tool);
-        auto& workspace = workspaces[path.tool];
+        const collision::CollisionWorld& world = *worlds.at(keyOf(path));
+        auto& workspace = workspaces[keyOf(path)];
         if (!workspace) workspace = std::make_unique<collision::CollisionWorkspace>(world);
         SeamSetting setting;
         setting.world = &world;

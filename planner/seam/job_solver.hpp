@@ -23,8 +23,10 @@ struct JobSolution {
 };
 
 /// Builds the tool path of every task of `job` (buildToolPath), a collision
-/// world per tool used (buildCellCollisionWorld, from the job's cell as
-/// loaded, so a frame moved in job.cell.frames moves seams and bodies), and
+/// world per tool and contact length used (buildCellCollisionWorld with
+/// `collision` and the path's ToolPath::contact_length in place of
+/// collision.contact_length, from the job's cell as loaded, so a frame moved
+/// in job.cell.frames moves seams and bodies), and
 /// solves the tasks with options.threads worker threads, each with its own
 /// collision workspace. The result does not depend on the thread count.
 /// `on_step`, when set, hears of each task as it is solved.

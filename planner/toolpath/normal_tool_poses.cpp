@@ -5,8 +5,7 @@
 
 namespace tw::planner {
 
-Eigen::Isometry3d normalToolPose(const SeamSample& sample, double stand_off,
-                                 const std::string& source) {
+Eigen::Isometry3d normalToolPose(const SeamSample& sample, const std::string& source) {
   Eigen::Vector3d normal = sample.normal;
   if (sample.second_normal) {
     normal += *sample.second_normal;
@@ -17,7 +16,7 @@ Eigen::Isometry3d normalToolPose(const SeamSample& sample, double stand_off,
     normal.normalize();
   }
   const std::optional<Eigen::Isometry3d> X_XT =
-      toolFrameAlong(sample.p_XP + stand_off * normal, -normal, sample.tangent);
+      toolFrameAlong(sample.p_XP, -normal, sample.tangent);
   if (!X_XT) {
     throw InputError(source, sample.line,
                      "the surface normal lies along the seam; expected it across the seam");

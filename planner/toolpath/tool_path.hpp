@@ -1,6 +1,7 @@
 #pragma once
 
 #include <Eigen/Geometry>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -14,7 +15,9 @@ namespace tw::planner {
 struct Waypoint {
   /// Pose of the TCP in the path's frame X [m]; z is the tool axis.
   Eigen::Isometry3d X_XT = Eigen::Isometry3d::Identity();
-  double speed = 0.0;       ///< TCP speed on the move arriving here [m/s]
+  /// Speed [m/s] on the move arriving here: of the seam point, which the TCP
+  /// is, so also of the TCP.
+  double speed = 0.0;
   bool process_on = false;  ///< process active on the move leaving this waypoint
   bool corner = false;      ///< the tool turns on the spot here (see SeamSample)
   int pass = 0;             ///< raster pass index from 0; 0 on a seam
@@ -30,6 +33,9 @@ struct ToolPath {
   std::string frame;
   std::string tool;
   ProcessKind process = ProcessKind::kWeld;
+  /// contactLength() of the process: what of the tool may touch the part
+  /// [m] (CellCollisionOptions::contact_length).
+  std::optional<double> contact_length;
   /// Where the approach starts: the first waypoint backed off along its axis.
   Eigen::Isometry3d approach = Eigen::Isometry3d::Identity();
   std::vector<Waypoint> waypoints;

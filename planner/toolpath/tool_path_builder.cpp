@@ -24,6 +24,7 @@ ToolPath buildToolPath(const SeamSpec& seam, const Tool& tool) {
   path.frame = seam.frame;
   path.tool = tool.name;
   path.process = kindOf(seam.process);
+  path.contact_length = contactLength(seam.process);
   path.spin = tool.spin;
   path.source = seam.points.source;
   const std::vector<SeamSample> samples = sampleSeam(seam.points, seam.sampling);
@@ -32,11 +33,8 @@ ToolPath buildToolPath(const SeamSpec& seam, const Tool& tool) {
     Waypoint waypoint;
     if (const auto* weld = std::get_if<WeldParameters>(&seam.process)) {
       waypoint.X_XT = weldToolPose(sample, *weld, seam.points.source);
-    } else if (const auto* paint = std::get_if<PaintParameters>(&seam.process)) {
-      waypoint.X_XT = normalToolPose(sample, paint->stand_off, seam.points.source);
     } else {
-      waypoint.X_XT = normalToolPose(sample, std::get<DispenseParameters>(seam.process).stand_off,
-                                     seam.points.source);
+      waypoint.X_XT = normalToolPose(sample, seam.points.source);
     }
     waypoint.speed = sample.speed.value_or(seam.speed);
     waypoint.process_on = i + 1 < samples.size();
@@ -68,7 +66,7 @@ ToolPath buildToolPath(const PatchSpec& patch, const Tool& tool, const std::stri
     const auto add = [&](const Eigen::Vector3d& aim, bool spray_on) {
       Waypoint waypoint;
       // The pass direction lies in the plane, so the frame always exists.
-      waypoint.X_XT = *toolFrameAlong(aim + patch.raster.stand_off * n, -n, x_axis);
+      waypoint.X_XT = *toolFrameAlong(aim, -n, x_axis);
       waypoint.speed = patch.speed;
       waypoint.process_on = spray_on;
       waypoint.pass = static_cast<int>(k);

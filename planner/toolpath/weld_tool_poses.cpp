@@ -58,7 +58,7 @@ Eigen::Isometry3d weldToolPose(const SeamSample& sample, const WeldParameters& w
   const Eigen::Vector3d z = -std::cos(lean) * back + std::sin(lean) * t;
   // x follows from t as long as the lean stays below 90°.
   const std::optional<Eigen::Isometry3d> X_XT =
-      toolFrameAlong(sample.p_XP - weld.contact_tip_distance * z, z, t);
+      toolFrameAlong(sample.p_XP, z, t);
   if (!X_XT) throw InputError(source, sample.line, "the travel angle leaves no travel direction");
   return *X_XT;
 }

@@ -15,8 +15,9 @@ namespace tw::planner {
 /// or to the left of travel seen from the surface side (single normal,
 /// u = n × t). It is then leant by the travel angle towards (push) or away
 /// from (drag) the travel direction. The tool z axis points along the wire
-/// towards the work, x along travel (perpendicular to z), and the TCP sits
-/// the contact-tip-to-work distance back from the seam point along z.
+/// towards the work, x along travel (perpendicular to z), and the TCP (the
+/// wire end) is the seam point; the contact tip is weld.contact_tip_distance
+/// back from it along z, which only the collision model uses.
 ///
 /// By construction the work angle measured in the plane perpendicular to the
 /// seam and the travel angle equal the parameters exactly (see

@@ -6,16 +6,20 @@
 
 #include <filesystem>
 #include <map>
+#include <optional>
 #include <nlohmann/json.hpp>
 #include <sstream>
 #include <string>
+#include <utility>
 #include <variant>
 
 #include "collision/collision_world.hpp"
 #include "kinematics/common/angles.hpp"
+#include "kinematics/common/number_text.hpp"
 #include "kinematics/forward_kinematics.hpp"
 #include "planner/cell/cell_collision_world.hpp"
 #include "planner/job/job_loader.hpp"
+#include "planner/toolpath/seam_sampler.hpp"
 #include "planner/toolpath/tool_path_builder.hpp"
 #include "postproc/motion_text/motion_text_reader.hpp"
 #include "tests/cli/cli_test_support.hpp"
@@ -38,11 +42,18 @@ double angleBetween(const Eigen::Vector3d& a, const Eigen::Vector3d& b) {
   return std::atan2(a.cross(b).norm(), a.dot(b));
 }
 
-/// The collision world of one tool of a cell, with the workspace its
-/// queries use.
+/// The collision world of one tool of a cell, with the part of it that may
+/// touch a workpiece (none on free moves), and the workspace its queries use.
 struct ToolWorld {
-  ToolWorld(const planner::Cell& cell, const planner::Tool& tool)
-      : world(planner::buildCellCollisionWorld(cell, tool)), workspace(world) {}
+  ToolWorld(const planner::Cell& cell, const planner::Tool& tool,
+            const std::optional<double>& contact_length)
+      : world(planner::buildCellCollisionWorld(cell, tool, contactOptions(contact_length))),
+        workspace(world) {}
+  static planner::CellCollisionOptions contactOptions(const std::optional<double>& length) {
+    planner::CellCollisionOptions options;
+    options.contact_length = length;
+    return options;
+  }
   collision::CollisionWorld world;
   collision::CollisionWorkspace workspace;
 };
@@ -69,9 +80,18 @@ void verifyProgram(const planner::Program& program, const planner::Job& job) {
   const planner::Cell& cell = job.cell;
   const kinematics::ArmModel& arm = cell.arm;
   const Eigen::Isometry3d X_WB = cell.frames.X_W(cell.arm_frame);
-  std::map<std::string, ToolWorld> worlds;
-  for (const planner::Tool& tool : cell.tools) worlds.try_emplace(tool.name, cell, tool);
   const std::map<std::string, planner::ToolPath> paths = toolPaths(job);
+  // Per tool and contact length: seams with their process's contact part,
+  // free moves with none.
+  std::map<std::pair<std::string, std::optional<double>>, ToolWorld> worlds;
+  for (const planner::Tool& tool : cell.tools) {
+    worlds.try_emplace({tool.name, std::nullopt}, cell, tool, std::nullopt);
+    for (const auto& [name, path] : paths) {
+      if (path.tool == tool.name) {
+        worlds.try_emplace({tool.name, path.contact_length}, cell, tool, path.contact_length);
+      }
+    }
+  }
 
   int motions = 0;
   const kinematics::JointVector* previous = nullptr;
@@ -125,7 +145,9 @@ void verifyProgram(const planner::Program& program, const planner::Job& job) {
       CHECK(on_seam);
     }
     // The solver and the transit planner keep the margin at every target.
-    ToolWorld& tool_world = worlds.at(motion->tool);
+    ToolWorld& tool_world = worlds.at(
+        {motion->tool,
+         motion->seam.empty() ? std::nullopt : paths.at(motion->seam).contact_length});
     CHECK(tool_world.world.checkState(motion->q, tool_world.workspace).valid());
     // Average joint speed over each move within the joint's limit (the
     // limit is on the peak; the average can only be lower).
@@ -377,6 +399,97 @@ TEST_CASE("check passes the sample job; plan and check refuse bad input with exi
   CHECK(test::runTool("plan samples/jobs/bracket_welds.xml --threads 0").exit_code == 2);
   CHECK(test::runTool("plan --help").exit_code == 0);
   CHECK(test::runTool("check --help").exit_code == 0);
+}
+
+/// The sample bracket cell with its arm and meshes named by absolute path,
+/// `extra` added before its end, written as a test file named `name`.
+std::string writeBracketCell(const std::string& name, const std::string& extra) {
+  std::string cell = test::readText(samples() + "cells/bracket_weld_cell.xml");
+  replaceFirst(cell, "file=\"../arms/", "file=\"" + samples() + "arms/");
+  replaceFirst(cell, "file=\"meshes/", "file=\"" + samples() + "cells/meshes/");
+  replaceFirst(cell, "</cell>", extra + "</cell>");
+  return test::writeTestFile(name, cell);
+}
+
+TEST_CASE("plan refuses a thin sheet workpiece lying across the torch nozzle",
+          "[cli][plan][exit-codes]") {
+  // A 2 mm sheet 22 mm above the bracket's base plate, over corner-left
+  // (x 10..120 along the fillet of base and upright): the torch axis leaves
+  // the seam at 45° between the plates, so the nozzle (from 18 mm back along
+  // it) passes through the sheet at every waypoint, while the wire stick-out
+  // with its 3 mm allowance stays below z = 8 + (15 + 3)·sin 45° < 21 mm.
+  // Only the contact part may touch a workpiece: the nozzle may not.
+  const std::string directory = outputDirectory("plan_sheet");
+  std::string job = sampleJobText(directory);
+  replaceFirst(job, samples() + "cells/bracket_weld_cell.xml",
+               writeBracketCell("sheet_cell.xml",
+                                "  <workpiece name=\"sheet\" frame=\"bracket\">\n"
+                                "    <box size=\"140 40 2\" xyz=\"70 40 31\"/>\n"
+                                "  </workpiece>\n"));
+  const std::string job_file = test::writeTestFile("sheet_job.xml", job);
+  const test::ToolRun plan = test::runTool("plan '" + job_file + "'");
+  CAPTURE(plan.output);
+  CHECK(plan.exit_code == 3);
+  CHECK_THAT(plan.output, Catch::Contains("corner-left") && Catch::Contains("sheet / torch") &&
+                              Catch::Contains("no program written"));
+  CHECK_FALSE(std::filesystem::exists(directory));
+}
+
+TEST_CASE("The point on a circular seam moves at the programmed speed", "[cli][plan]") {
+  // 120° of a circle of radius 40 mm on the bracket's base plate (the part
+  // the sample arm reaches with the torch leant in), a point every 5°, the
+  // torch leaning 30° towards the centre (work angle 60°): a TCP held off
+  // the seam point would run on a circle of another radius (32.5 mm at the
+  // former 15 mm contact-tip offset), at another speed.
+  const double radius_mm = 40.0;
+  std::string points = "x_mm,y_mm,z_mm,nx,ny,nz\n";
+  for (int degrees = 190; degrees <= 310; degrees += 5) {
+    const double angle = degrees * kPi / 180.0;
+    points += formatFixed(90.0 + radius_mm * std::cos(angle), 6) + ',' +
+              formatFixed(70.0 + radius_mm * std::sin(angle), 6) + ",8,0,0,1\n";
+  }
+  const std::string directory = outputDirectory("plan_circle");
+  const std::string job_file = test::writeTestFile(
+      "circle_job.xml",
+      "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n"
+      "<job format-version=\"1\" name=\"circle\" length-unit=\"mm\" angle-unit=\"deg\" "
+      "time-unit=\"s\">\n"
+      "  <cell file=\"" + samples() + "cells/bracket_weld_cell.xml\"/>\n"
+      "  <seam name=\"circle\" points=\"" + test::writeTestFile("circle.csv", points) +
+      "\" frame=\"bracket\" tool=\"torch\" speed=\"8\" approach=\"30\" retract=\"30\" "
+      "step=\"2\">\n"
+      "    <weld work-angle=\"60\" travel-angle=\"10\" contact-tip-distance=\"15\"/>\n"
+      "  </seam>\n"
+      "  <outputs directory=\"" + directory + "\">\n"
+      "    <output writer=\"motion-text\" file=\"circle.twm\"/>\n"
+      "  </outputs>\n"
+      "</job>\n");
+  const test::ToolRun plan = test::runTool("plan '" + job_file + "'");
+  CAPTURE(plan.output);
+  REQUIRE(plan.exit_code == 0);
+
+  // The seam points by the sampler alone (no tool pose involved), one per
+  // waypoint; the program's linear moves of the seam are the approach onto
+  // waypoint 0, one move onto each further waypoint, and the retract.
+  const planner::Job job = planner::loadJob(job_file);
+  const auto& seam = std::get<planner::SeamSpec>(job.tasks.front());
+  const std::vector<planner::SeamSample> samples = planner::sampleSeam(seam.points, seam.sampling);
+  const planner::Program program = postproc::readMotionTextFile(directory + "/circle.twm");
+  std::vector<const planner::MotionRecord*> moves;
+  for (const planner::ProgramRecord& record : program.records) {
+    const auto* motion = std::get_if<planner::MotionRecord>(&record);
+    if (motion != nullptr && motion->seam == "circle") moves.push_back(motion);
+  }
+  REQUIRE(samples.size() > 30);
+  REQUIRE(moves.size() == samples.size() + 1);
+  for (std::size_t k = 1; k < samples.size(); ++k) {
+    CAPTURE(k);
+    REQUIRE(moves[k]->duration > 0.0);
+    const double seam_speed = (samples[k].p_XP - samples[k - 1].p_XP).norm() / moves[k]->duration;
+    // 1 %: the issue's bar; the file's durations are printed to 1 ms of
+    // moves of about 250 ms (0.4 %).
+    CHECK(seam_speed == Approx(0.008).epsilon(0.01));
+  }
 }
 
 }  // namespace tw::cli

@@ -43,30 +43,43 @@ TEST_CASE("Tessellated primitives are closed and hold slightly less than the sol
   }
 }
 
-TEST_CASE("Cutting a ball out of a mesh drops only what lies inside the ball") {
+TEST_CASE("Cutting a capsule out of a mesh drops only what lies inside the capsule") {
   const kinematics::LinkShape rod = roundShape(kinematics::LinkShape::Kind::kCylinder, 0.01, 0.2);
   const TriangleMesh mesh = tessellateShape(rod, 32);
-  const Eigen::Vector3d tip(0, 0, -0.1);
-  const double radius = 0.03;
-  const TriangleMesh cut = meshOutsideBall(mesh, tip, radius);
-  REQUIRE_FALSE(cut.triangles.empty());
-  // No kept triangle lies wholly inside the ball (a convex set holds a
-  // triangle iff it holds its corners).
-  for (const std::array<int, 3>& t : cut.triangles) {
-    const bool inside = (cut.vertices[t[0]] - tip).norm() <= radius &&
-                        (cut.vertices[t[1]] - tip).norm() <= radius &&
-                        (cut.vertices[t[2]] - tip).norm() <= radius;
-    CHECK_FALSE(inside);
+  // A ball (both ends at the rod's tip) and a capsule along the rod's axis
+  // from its tip 50 mm inwards, narrower than the rod: it takes only the
+  // middle of the end face.
+  struct Cut {
+    Eigen::Vector3d a, b;
+    double radius;
+  };
+  for (const Cut& cut_zone : {Cut{{0, 0, -0.1}, {0, 0, -0.1}, 0.03},
+                              Cut{{0, 0, -0.1}, {0, 0, -0.05}, 0.004}}) {
+    CAPTURE(cut_zone.a.transpose(), cut_zone.b.transpose(), cut_zone.radius);
+    const auto inside = [&](const Eigen::Vector3d& p) {
+      return distanceToSegment(p, cut_zone.a, cut_zone.b) <= cut_zone.radius;
+    };
+    const TriangleMesh cut = meshOutsideCapsule(mesh, cut_zone.a, cut_zone.b, cut_zone.radius);
+    REQUIRE_FALSE(cut.triangles.empty());
+    // No kept triangle lies wholly inside the capsule (a convex set holds a
+    // triangle iff it holds its corners).
+    for (const std::array<int, 3>& t : cut.triangles) {
+      CHECK_FALSE((inside(cut.vertices[t[0]]) && inside(cut.vertices[t[1]]) &&
+                   inside(cut.vertices[t[2]])));
+    }
+    // Every original corner outside the capsule survives.
+    for (const Eigen::Vector3d& v : mesh.vertices) {
+      if (inside(v)) continue;
+      bool kept = false;
+      for (const Eigen::Vector3d& w : cut.vertices) kept = kept || (w - v).norm() < 1e-15;
+      CHECK(kept);
+    }
+    // Kept triangles reach into the capsule by at most the split limit
+    // radius / 8.
+    for (const Eigen::Vector3d& w : cut.vertices) {
+      CHECK(distanceToSegment(w, cut_zone.a, cut_zone.b) > cut_zone.radius - cut_zone.radius / 8.0);
+    }
   }
-  // Every original corner outside the ball survives.
-  for (const Eigen::Vector3d& v : mesh.vertices) {
-    if ((v - tip).norm() <= radius) continue;
-    bool kept = false;
-    for (const Eigen::Vector3d& w : cut.vertices) kept = kept || (w - v).norm() < 1e-15;
-    CHECK(kept);
-  }
-  // Kept triangles reach into the ball by at most the split limit radius / 8.
-  for (const Eigen::Vector3d& w : cut.vertices) CHECK((w - tip).norm() > radius - radius / 8.0);
 }
 
 }  // namespace

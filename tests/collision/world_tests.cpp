@@ -1,7 +1,9 @@
 #include <catch2/catch.hpp>
 
 #include <cmath>
+#include <fcl/narrowphase/distance.h>
 #include <limits>
+#include <memory>
 
 #include "collision/collision_world.hpp"
 #include "collision/tessellation.hpp"
@@ -95,7 +97,8 @@ TEST_CASE("A mesh obstacle gives closed-form clearance and catches a body inside
 }
 
 /// The slider carries a box (the carriage) and a torch: a cylinder r = 10 mm
-/// from the flange down 200 mm, with the TCP at its tip. The workpiece top
+/// from the flange down 200 mm, with the TCP at its tip (z towards the work)
+/// and a tip contact of a 30 mm ball about it. The workpiece top
 /// is 1 mm above the tip at q = 0.5, and a wall of the same workpiece rises
 /// at x = 0.75.
 struct TorchCell {
@@ -105,7 +108,8 @@ struct TorchCell {
     tool.shapes = {test::cylinderShape(0.01, 0.2, X_FS)};
     tool.name = "torch";
     tool.X_FT.translation() = Eigen::Vector3d(0, 0, -0.2);
-    tool.tip_allowance = 0.03;
+    tool.X_FT.linear() = Eigen::AngleAxisd(kPi, Eigen::Vector3d::UnitX()).toRotationMatrix();
+    tool.tip_contact = TipContact{0.0, 0.03};
     description.tool = tool;
     description.bodies.push_back(
         {"part", BodyRole::kWorkpiece, "",
@@ -161,6 +165,121 @@ TEST_CASE("The tool tip may touch the workpiece at the seam, nothing else may") 
     const StateResult result = raised.checkState(joints({0.5}), raised_workspace);
     CHECK(result.status == StateStatus::kInCollision);
     CHECK(raised.bodyName(result.body_a) == "carriage");
+  }
+}
+
+/// A welding torch on the slider, TCP (the wire end) 200 mm below the
+/// flange with z towards the work: a modelled wire (r 0.6 mm) from the TCP
+/// up 15 mm to the contact tip, and a nozzle (r 9 mm) from 20 mm to 120 mm
+/// above the TCP. At q = 0.5 the wire end rests on a plate; a wall of the
+/// same workpiece stands beside the nozzle, its face 11 mm from the torch
+/// axis: 2 mm from the nozzle.
+struct NozzleCell {
+  static constexpr double kQ = 0.5;
+
+  NozzleCell() {
+    ToolDescription tool;
+    tool.name = "torch";
+    tool.X_FT.translation() = Eigen::Vector3d(0, 0, -0.2);
+    tool.X_FT.linear() = Eigen::AngleAxisd(kPi, Eigen::Vector3d::UnitX()).toRotationMatrix();
+    tool.shapes = {test::cylinderShape(0.0006, 0.015, translation(0, 0, -0.2 + 0.0075)),
+                   test::cylinderShape(0.009, 0.1, translation(0, 0, -0.2 + 0.07))};
+    tool.tip_contact = TipContact{0.015, 0.003};
+    description.tool = tool;
+    description.bodies.push_back(
+        {"plate", BodyRole::kWorkpiece, "",
+         {test::boxShape(Eigen::Vector3d(0.4, 0.4, 0.02), Eigen::Vector3d(kQ, 0, -0.21)),
+          test::boxShape(Eigen::Vector3d(0.01, 0.1, 0.06), Eigen::Vector3d(kQ + 0.016, 0, -0.17))}});
+  }
+
+  static Eigen::Isometry3d translation(double x, double y, double z) {
+    Eigen::Isometry3d X = Eigen::Isometry3d::Identity();
+    X.translation() = Eigen::Vector3d(x, y, z);
+    return X;
+  }
+
+  CollisionWorld build() const {
+    return CollisionWorld(test::sliderArm({test::boxShape(Eigen::Vector3d(0.1, 0.1, 0.05),
+                                                          Eigen::Vector3d(0, 0, 0.05))}),
+                          description);
+  }
+
+  /// FCL's own distance between two primitives at world poses.
+  static double fclDistance(const fcl::CollisionGeometryd& a_geometry, const Eigen::Isometry3d& X_WA,
+                            const fcl::CollisionGeometryd& b_geometry,
+                            const Eigen::Isometry3d& X_WB) {
+    std::shared_ptr<fcl::CollisionGeometryd> a(const_cast<fcl::CollisionGeometryd*>(&a_geometry),
+                                               [](fcl::CollisionGeometryd*) {});
+    std::shared_ptr<fcl::CollisionGeometryd> b(const_cast<fcl::CollisionGeometryd*>(&b_geometry),
+                                               [](fcl::CollisionGeometryd*) {});
+    const fcl::CollisionObjectd object_a(a, X_WA);
+    const fcl::CollisionObjectd object_b(b, X_WB);
+    fcl::DistanceRequestd request;
+    fcl::DistanceResultd result;
+    fcl::distance(&object_a, &object_b, request, result);
+    return result.min_distance;
+  }
+
+  WorldDescription description;
+};
+
+TEST_CASE("Record clearance is the distance of the tool without its contact part") {
+  NozzleCell cell;
+  const CollisionWorld world = cell.build();
+  CollisionWorkspace workspace(world);
+  ClearanceQuery to_cell;
+  to_cell.pairs = PairGroup::kCell;
+
+  // Reference: FCL's distance between the primitives themselves (a reference
+  // library), at the world poses the slider gives them (flange at x = q).
+  const fcl::Cylinderd nozzle(0.009, 0.1);
+  const fcl::Cylinderd wire(0.0006, 0.015);
+  const fcl::Boxd wall(0.01, 0.1, 0.06);
+  const fcl::Boxd plate(0.4, 0.4, 0.02);
+  const auto at = [](double x, double z) { return NozzleCell::translation(x, 0, z); };
+  const double nozzle_to_wall = NozzleCell::fclDistance(nozzle, at(NozzleCell::kQ, -0.13), wall,
+                                                        at(NozzleCell::kQ + 0.016, -0.17));
+  const double wire_to_plate = NozzleCell::fclDistance(wire, at(NozzleCell::kQ, -0.1925), plate,
+                                                       at(NozzleCell::kQ, -0.21));
+  // The scene is what it claims: nozzle 2 mm from the wall (elementary
+  // geometry: 11 mm face offset − 9 mm radius), wire end on the plate.
+  REQUIRE(nozzle_to_wall == Approx(0.002).margin(1e-9));
+  // FCL reports a negative distance for objects in contact.
+  REQUIRE(wire_to_plate <= 0.0);
+
+  const Clearance clearance = world.clearance(joints({NozzleCell::kQ}), workspace, to_cell);
+  // 0.1 mm: the world measures the nozzle as a 32-sided polygon prism, up to
+  // r·(1 − cos(π/32)) = 0.04 mm inside the cylinder (elementary geometry).
+  CHECK(clearance.distance == Approx(nozzle_to_wall).margin(0.0001));
+  CHECK(world.bodyName(clearance.body_a) == "torch");
+  CHECK(world.bodyName(clearance.body_b) == "plate");
+  // 2 mm is inside the 10 mm margin: the nozzle may not work there, though
+  // the wire may touch.
+  const StateResult state = world.checkState(joints({NozzleCell::kQ}), workspace);
+  CHECK(state.status == StateStatus::kWithinMargin);
+
+  SECTION("without a tip contact (a spray tool) the wire on the plate counts too") {
+    cell.description.tool->tip_contact.reset();
+    const CollisionWorld strict = cell.build();
+    CollisionWorkspace strict_workspace(strict);
+    CHECK(strict.clearance(joints({NozzleCell::kQ}), strict_workspace, to_cell).distance <
+          0.0001);
+    CHECK(strict.checkState(joints({NozzleCell::kQ}), strict_workspace).status ==
+          StateStatus::kInCollision);
+  }
+  SECTION("without the wall, the nozzle's face 20 mm above the plate is nearest") {
+    // The whole 15 mm stick-out (the modelled wire) is exempt, not only the
+    // ball at the TCP: the wire's upper end is at 15 mm.
+    cell.description.bodies[0].shapes.pop_back();
+    const CollisionWorld open = cell.build();
+    CollisionWorkspace open_workspace(open);
+    CHECK(open.clearance(joints({NozzleCell::kQ}), open_workspace, to_cell).distance ==
+          Approx(0.020).margin(0.0001));
+  }
+  SECTION("moved 1 mm further from the wall, the nozzle is 3 mm from it") {
+    // The nozzle's face stays 20 mm above the plate: the wall is nearest.
+    const Clearance moved = world.clearance(joints({NozzleCell::kQ - 0.001}), workspace, to_cell);
+    CHECK(moved.distance == Approx(nozzle_to_wall + 0.001).margin(0.0001));
   }
 }
 

@@ -63,9 +63,9 @@ TEST_CASE("The sample bracket seams hold the torch at the job's angles", "[plann
   // The corner seam starts at (10, 8, 8) mm in the bracket frame, which the
   // turn makes (−8, 10, 8) mm from the bracket origin: the world point is
   // table (1300, 0, 0) + top (0, 0, 800) + bracket (100, −50, 0) + that, and
-  // the TCP sits 15 mm back along the torch axis.
+  // the TCP (the wire end) is that point.
   const Eigen::Vector3d p_W(1.300 + 0.100 - 0.008, -0.050 + 0.010, 0.800 + 0.008);
-  CHECK((X_WT.translation() + 0.015 * X_WT.linear().col(2) - p_W).norm() < 1e-9);
+  CHECK((X_WT.translation() - p_W).norm() < 1e-9);
   CHECK(std::get<WeldParameters>(corner.process).work_angle.value() == Approx(45.0 * kPi / 180.0));
 
   SECTION("after a known move of the bracket the seam follows it") {
@@ -80,8 +80,7 @@ TEST_CASE("The sample bracket seams hold the torch at the job's angles", "[plann
     moved.setPoseInParent("bracket", X_TB);
     const Eigen::Isometry3d X_WT_moved = worldPoses(path, moved)[1];
     const Eigen::Vector3d p_W_moved(1.300 + 0.050 - 0.010, 0.020 - 0.008, 0.800 + 0.008);
-    CHECK((X_WT_moved.translation() + 0.015 * X_WT_moved.linear().col(2) - p_W_moved).norm() <
-          1e-9);
+    CHECK((X_WT_moved.translation() - p_W_moved).norm() < 1e-9);
     // The torch turned with the part: its axis is the old one turned 90° about z.
     const Eigen::Vector3d z_old = X_WT.linear().col(2);
     CHECK((X_WT_moved.linear().col(2) - Eigen::Vector3d(-z_old.y(), z_old.x(), z_old.z())).norm() <
@@ -231,10 +230,10 @@ TEST_CASE("The sample panel coat follows the reference spray vector", "[planner]
   // and steps across along z × (−x) = −y, so it lies above the panel: the
   // five pass lines are centred on its 400 mm height, two spacings (one fan
   // width) above the middle, at y = 200 mm + w. It starts the lead beyond
-  // the right edge (x = 600 mm + lead), and the TCP stands off 200 mm along
-  // the panel's z.
+  // the right edge (x = 600 mm + lead), and the TCP is the aim point on the
+  // face (the gun stands 200 mm back from it).
   const double w = patch.raster.spray_width;
-  const Eigen::Vector3d expected(1.4 - 0.2, 0.3 - (0.6 + patch.raster.lead), 0.95 + 0.2 + w);
+  const Eigen::Vector3d expected(1.4, 0.3 - (0.6 + patch.raster.lead), 0.95 + 0.2 + w);
   CHECK((X_WT.translation() - expected).norm() < 1e-9);
   // Gun horizontal, pointing at the face (world +x); the first pass runs
   // from right to left as seen from the arm (world +y).
@@ -252,8 +251,9 @@ TEST_CASE("The sample panel seal runs along the lower edge with the nozzle at th
   const Eigen::Isometry3d X_WT = worldPoses(path, job.cell.frames)[1];
   // The first point (20, 20, 0) mm in the panel frame, composed by hand as in
   // the coat test (common practice, no source): world (1400, 300 − 20,
-  // 950 + 20) mm, with the TCP 3 mm off the face towards the arm (−x).
-  const Eigen::Vector3d expected(1.4 - 0.003, 0.3 - 0.02, 0.95 + 0.02);
+  // 950 + 20) mm; the TCP is that point on the face (the nozzle tip stands
+  // 3 mm back from it towards the arm).
+  const Eigen::Vector3d expected(1.4, 0.3 - 0.02, 0.95 + 0.02);
   CHECK((X_WT.translation() - expected).norm() < 1e-9);
   CHECK((X_WT.linear().col(2) - Eigen::Vector3d::UnitX()).norm() < 1e-12);
 }

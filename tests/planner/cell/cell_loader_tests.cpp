@@ -31,7 +31,7 @@ std::string validCell() {
     <tcp xyz="0 0 400" rpy="0 20 0"/>
     <cylinder radius="40" length="200" xyz="0 0 100"/>
   </tool>
-  <tool name="gun" symmetric="false" spin-min="-10" spin-max="10">
+  <tool name="gun" symmetric="false" spin-min="-10" spin-max="10" tip-allowance="5">
     <tcp xyz="0 0 250"/>
   </tool>
   <fixture name="table" frame="table">
@@ -77,6 +77,9 @@ TEST_CASE("A cell file loads with its frames, tools, bodies and home in SI", "[p
   const Tool& gun = *cell.findTool("gun");
   CHECK_FALSE(gun.symmetric);
   CHECK(gun.spin.max == Approx(10.0 * kPi / 180.0).margin(kExact));
+  // The tip allowance: 3 mm unless the tool states one (the loader's default).
+  CHECK(torch.tip_allowance == Approx(0.003).margin(kExact));
+  CHECK(gun.tip_allowance == Approx(0.005).margin(kExact));
   CHECK(cell.findTool("none") == nullptr);
 
   REQUIRE(cell.bodies.size() == 3);
@@ -124,6 +127,8 @@ TEST_CASE("Every malformed cell element is a located error", "[planner][cell][er
        "spin-min=", "spin-min must not exceed spin-max"},
       {"spin range over a turn", R"(spin-min="-10" spin-max="10")",
        R"(spin-min="-200" spin-max="200")", "spin-min=", "at most 360"},
+      {"zero tip allowance", R"(tip-allowance="5")", R"(tip-allowance="0")", "tip-allowance=",
+       "tip-allowance must be > 0"},
       {"tool without tcp", R"(<tcp xyz="0 0 250"/>)", "", R"(<tool name="gun")",
        "missing element <tcp>"},
       {"bad symmetric", R"(symmetric="false")", R"(symmetric="no")", R"(symmetric="no")",

@@ -70,11 +70,10 @@ TEST_CASE("A seam tool path has approach and retract along the tool axis", "[pla
   }
 }
 
-TEST_CASE("Paint and dispense tools stand square to the surface at the stand-off",
+TEST_CASE("Paint and dispense tools stand square to the surface, the TCP on the seam",
           "[planner][path]") {
   for (const ProcessParameters& process :
        {ProcessParameters(PaintParameters{0.200}), ProcessParameters(DispenseParameters{0.003})}) {
-    const double stand_off = process.index() == 1 ? 0.200 : 0.003;
     SeamSpec seam = seamWith(process);
     seam.points = test::pointList({{0, 0, 0}, {0.05, 0.01, 0.0}},
                                   {Eigen::Vector3d(0, 0.2, 1), Eigen::Vector3d(0, 0.2, 1)});
@@ -84,9 +83,9 @@ TEST_CASE("Paint and dispense tools stand square to the surface at the stand-off
     for (const Waypoint& waypoint : path.waypoints) {
       const Eigen::Vector3d z = waypoint.X_XT.linear().col(2);
       CHECK((z + n).norm() < kBar);
-      // The TCP stands stand_off above the seam point on the normal; that
-      // point is on the seam line from (0,0,0) to (50,10,0) mm.
-      const Eigen::Vector3d foot = waypoint.X_XT.translation() - stand_off * n;
+      // The TCP is the seam point (the stand-off is the tool tip's distance
+      // back from it), on the seam line from (0,0,0) to (50,10,0) mm.
+      const Eigen::Vector3d foot = waypoint.X_XT.translation();
       CHECK(foot.z() == Approx(0.0).margin(kBar));
       CHECK(foot.y() == Approx(0.2 * foot.x()).margin(kBar));
       CHECK(waypoint.X_XT.linear().col(0).dot(Eigen::Vector3d(5, 1, 0)) > 0.0);
@@ -96,7 +95,7 @@ TEST_CASE("Paint and dispense tools stand square to the surface at the stand-off
     SeamSample sample;
     sample.tangent = Eigen::Vector3d::UnitX();
     sample.second_normal = Eigen::Vector3d::UnitY();
-    const Eigen::Isometry3d X = normalToolPose(sample, 0.003, "test.csv");
+    const Eigen::Isometry3d X = normalToolPose(sample, "test.csv");
     // domain-facts.md §1 torch frame check, no lean: z0 = (0, −0.7071, −0.7071).
     CHECK((X.linear().col(2) - Eigen::Vector3d(0, -0.7071068, -0.7071068)).cwiseAbs().maxCoeff() <
           5e-8);
@@ -126,7 +125,8 @@ TEST_CASE("A patch tool path sprays only across the part", "[planner][path][pain
   for (const Waypoint& waypoint : path.waypoints) {
     const Eigen::Vector3d p = waypoint.X_XT.translation();
     CAPTURE(waypoint.pass, p.transpose());
-    CHECK(p.z() == Approx(0.2).margin(kBar));
+    // The TCP aims at the surface; the gun stands the stand-off behind it.
+    CHECK(p.z() == Approx(0.0).margin(kBar));
     CHECK((waypoint.X_XT.linear().col(2) + Eigen::Vector3d::UnitZ()).norm() < kBar);
     // The gun keeps its x axis along the first pass (+x) on the return
     // passes too: the fan (along the gun's y) stays across every pass, and
