@@ -251,6 +251,7 @@ class ProgramAssembler {
       record.seam = seam.name;
       record.branch = branch;
       builder_.addMotion(record, seam_world.world, seam_world.workspace);
+      keepSmallestMargin(move.joints);
       switch_process(target);
     }
     if (process_on) builder_.addEvent(ProcessEventKind::kStop, parameter_set, seam.name);
@@ -261,6 +262,19 @@ class ProgramAssembler {
     position_ = seam.retract.q;
     position_name_ = seam.name;
     return true;
+  }
+
+  /// A compacted move's singularity margin is the smallest along the path
+  /// the arm takes, not only at its target, so that no near-singular
+  /// waypoint it passes goes unreported.
+  void keepSmallestMargin(const FollowedPath& path) {
+    auto& record = std::get<MotionRecord>(program_.records.back());
+    for (const JointVector& q : path.q) {
+      const std::optional<double> wrist = kinematics::singularityMeasures(job_.cell.arm, q).wrist;
+      if (wrist && (!record.singularity_margin || *wrist < *record.singularity_margin)) {
+        record.singularity_margin = *wrist;
+      }
+    }
   }
 
   /// The warnings of the whole job, then the consistency check.

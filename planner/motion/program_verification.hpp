@@ -3,6 +3,7 @@
 #include <string>
 #include <vector>
 
+#include "kinematics/common/angles.hpp"
 #include "planner/cell/cell_collision_world.hpp"
 #include "planner/job/job.hpp"
 #include "planner/motion/move_following.hpp"
@@ -20,9 +21,10 @@ struct VerifyOptions {
   FollowLimits limits;
   /// A record's stored TCP pose may differ from the forward kinematics of
   /// its stored joints by this much before it is reported [m], [rad]: the
-  /// file's rounding (0.001 mm, 1e-9 per quaternion component) is far less.
-  double pose_position_tolerance = 0.01e-3;
-  double pose_angle_tolerance = 1e-6;
+  /// file rounds joints to 1e-4°, which moves a TCP 1.5 m out by up to
+  /// about 0.01 mm over six joints; 0.05 mm and 0.005° leave room for that.
+  double pose_position_tolerance = 0.05e-3;
+  double pose_angle_tolerance = 0.005 * kPi / 180.0;
 };
 
 /// One problem of one record, with its reason in words.

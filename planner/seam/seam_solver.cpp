@@ -5,10 +5,10 @@
 #include <cstdint>
 #include <limits>
 #include <set>
-#include <tuple>
-#include <utility>
 #include <stdexcept>
+#include <tuple>
 #include <unordered_map>
+#include <utility>
 
 #include "kinematics/common/angles.hpp"
 #include "kinematics/forward_kinematics.hpp"

@@ -12,6 +12,8 @@
 #include <string>
 #include <variant>
 
+#include "kinematics/arm_branch.hpp"
+#include "kinematics/common/angles.hpp"
 #include "kinematics/forward_kinematics.hpp"
 #include "kinematics/ortho_parallel_ik.hpp"
 #include "planner/job/job_loader.hpp"
@@ -59,6 +61,7 @@ TEST_CASE("The sample weld program is compacted, blended, and verify accepts it"
   const planner::Program program = postproc::readMotionTextFile(sampleProgramPath());
   int motions = 0;
   bool process_on = false;
+  bool previous_in_process = false;  // the process ran during `previous`
   int interior_points = 0;
   const planner::MotionRecord* previous = nullptr;
   for (const planner::ProgramRecord& record : program.records) {
@@ -67,18 +70,19 @@ TEST_CASE("The sample weld program is compacted, blended, and verify accepts it"
       // The arm stops exactly where the process switches (FORMAT.md).
       REQUIRE(previous != nullptr);
       CHECK(previous->blend_radius == 0.0);
+      previous = nullptr;
       continue;
     }
     const auto& motion = std::get<planner::MotionRecord>(record);
     ++motions;
-    if (process_on && previous != nullptr && previous->kind != planner::MotionKind::kJointMove &&
-        motion.kind != planner::MotionKind::kJointMove && previous->seam == motion.seam) {
+    if (process_on && previous != nullptr && previous_in_process && previous->seam == motion.seam) {
       // `previous` ends at an interior point of a process path: blended.
       ++interior_points;
       CAPTURE(motions);
       CHECK(previous->blend_radius > 0.0);
     }
     previous = &motion;
+    previous_in_process = process_on;
   }
   // The bar of the compaction: at most 40 motion records for the sample
   // (the waypoint-by-waypoint program had 179).
@@ -95,37 +99,52 @@ TEST_CASE("verify names a planted linear move through a clamp and the bodies it 
   const planner::Job job = planner::loadJob(test::sourcePath(kSampleJob));
   const planner::Cell& cell = job.cell;
   const planner::Tool& tool = *cell.findTool("torch");
-  // A straight line 180 mm above the table top straight through the right
-  // clamp's vertical handle (a cylinder at x -185, y 75 in the table top, 240
-  // mm long about z through z = 180: samples/cells/bracket_weld_cell.xml),
-  // the torch pointing down, from 120 mm on one side to 120 mm on the other.
-  const Eigen::Isometry3d X_WC = cell.frames.X_W("table-top");
-  Eigen::Isometry3d X_CT = Eigen::Isometry3d::Identity();
-  X_CT.linear() = Eigen::Vector3d(1.0, -1.0, -1.0).asDiagonal();
-  const auto joints_at = [&](const Eigen::Vector3d& p_C) {
-    X_CT.translation() = p_C;
-    const Eigen::Isometry3d X_BF =
-        cell.frames.X_W(cell.arm_frame).inverse() * X_WC * X_CT * tool.X_FT.inverse();
-    const kinematics::IkSolutions solutions = kinematics::OrthoParallelSolver(cell.arm).solve(X_BF);
-    const kinematics::BranchOutcome& front_up = solutions.branches[0];
-    REQUIRE(front_up.solution_count > 0);
+  // From where corner-left's approach starts (30 mm above the seam, a pose
+  // the arm reaches), straight down 80 mm, in the same branch and
+  // orientation: through the left clamp's bar, which presses on the base
+  // plate right below that point (samples/cells/bracket_weld_cell.xml).
+  const planner::MotionRecord* approach = nullptr;
+  for (const planner::ProgramRecord& record : program.records) {
+    const auto* motion = std::get_if<planner::MotionRecord>(&record);
+    if (motion != nullptr && motion->seam == "corner-left" && approach == nullptr) approach = motion;
+  }
+  REQUIRE(approach != nullptr);
+  const planner::MotionRecord* before = nullptr;
+  for (const planner::ProgramRecord& record : program.records) {
+    const auto* motion = std::get_if<planner::MotionRecord>(&record);
+    if (motion == approach) break;
+    if (motion != nullptr) before = motion;
+  }
+  REQUIRE(before != nullptr);  // the transit's end: where the approach starts
+  const Eigen::Isometry3d X_WB = cell.frames.X_W(cell.arm_frame);
+  const Eigen::Isometry3d X_WA = X_WB * kinematics::flangePose(cell.arm, before->q) * tool.X_FT;
+  Eigen::Isometry3d X_WD = X_WA;
+  X_WD.translation().z() -= 0.080;
+  const kinematics::IkSolutions solutions =
+      kinematics::OrthoParallelSolver(cell.arm).solve(X_WB.inverse() * X_WD * tool.X_FT.inverse());
+  const kinematics::ArmBranch branch = kinematics::ArmBranch::fromIndex(0);
+  const kinematics::BranchOutcome& front_up = solutions.branches[branch.index()];
+  REQUIRE(front_up.solution_count > 0);
+  const auto joints_at = [&](const kinematics::IkSolutions&) {
     return solutions.solutions[front_up.first_solution].q;
   };
+  planner::MotionRecord to_start = *before;
+  to_start.X_RT = cell.frames.X_W(to_start.frame).inverse() * X_WA;
+  const kinematics::IkSolutions at_end = solutions;
   const planner::MotionRecord& last = std::get<planner::MotionRecord>(program.records.back());
   const double end_time = last.start_time + last.duration;
-  planner::MotionRecord to_start = last;
-  to_start.q = joints_at(Eigen::Vector3d(-305.0, 75.0, 180.0));
-  to_start.X_RT = X_WC * X_CT;
   to_start.start_time = end_time;
   to_start.duration = 2.0;
   planner::MotionRecord through = to_start;
   through.kind = planner::MotionKind::kLinearMove;
-  through.q = joints_at(Eigen::Vector3d(-65.0, 75.0, 180.0));
-  through.X_RT = X_WC * X_CT;
+  through.q = joints_at(at_end);
+  through.frame = "world";
+  through.seam.clear();
+  through.X_RT = X_WD;
   through.speed = {planner::SpeedKind::kTcpSpeed, 0.05};
   through.start_time = end_time + 2.0;
   through.duration = 4.8;
-  through.branch = "shoulder front, elbow up, wrist not flipped";
+  through.branch = branch.toString();
   program.records.push_back(to_start);
   program.records.push_back(through);
   const int planted = static_cast<int>(program.records.size());
@@ -136,7 +155,7 @@ TEST_CASE("verify names a planted linear move through a clamp and the bodies it 
   CHECK(run.exit_code == 3);
   CHECK(namedRecords(run.output).count(planted) == 1);
   CHECK_THAT(run.output, Catch::Contains("record " + std::to_string(planted) + " (linear-move)") &&
-                             Catch::Contains("clamp-right"));
+                             Catch::Contains("collision") && Catch::Contains("torch against clamp-left"));
   // Everything the planner wrote still runs: only the planted records are named.
   for (const int record : namedRecords(run.output)) CHECK(record >= planted - 1);
 }

@@ -1,7 +1,7 @@
 #include <catch2/catch.hpp>
 #include <memory>
-#include <variant>
 #include <sstream>
+#include <variant>
 
 #include "kinematics/common/input_error.hpp"
 #include "postproc/post_processor_registry.hpp"
