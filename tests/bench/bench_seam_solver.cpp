@@ -12,6 +12,7 @@
 #include "kinematics/common/angles.hpp"
 #include "kinematics/ortho_parallel_ik.hpp"
 #include "planner/cell/cell_loader.hpp"
+#include "planner/motion/seam_moves.hpp"
 #include "planner/seam/job_solver.hpp"
 
 namespace {
@@ -110,6 +111,48 @@ void BM_SeamSolve500(benchmark::State& state) {
   state.counters["solve_in_ik_solves"] = solve_each / ik_seconds;
 }
 BENCHMARK(BM_SeamSolve500)->Arg(0)->Arg(1)->Unit(benchmark::kMillisecond)->MinTime(1.0);
+
+/// Compaction of the solved 500-waypoint seam into controller moves, each
+/// re-checked as the controller interpolates it (compactSolvedSeam), then
+/// their TOPP-RA timing. Bar (DESIGN.md §5): compaction + verification
+/// ≤ 50 ms on one core. Reference in the same run: the seam solve itself.
+void BM_CompactAndVerify500(benchmark::State& state) {
+  Demo& d = demo();
+  tw::collision::CollisionWorkspace workspace(d.world);
+  const auto solve_start = std::chrono::steady_clock::now();
+  const SeamOutcome outcome = solveSeam(d.path, d.setting, SeamSolverOptions{}, workspace);
+  const double solve_seconds =
+      std::chrono::duration<double>(std::chrono::steady_clock::now() - solve_start).count();
+  const auto* solved = std::get_if<SolvedSeam>(&outcome);
+  if (!solved) {
+    state.SkipWithError(std::get<SeamReport>(outcome).text().c_str());
+    return;
+  }
+  FollowSetting setting;
+  setting.world = &d.world;
+  setting.X_BR = d.setting.X_WB.inverse() * d.setting.X_WX;
+  setting.X_FT = d.setting.X_FT;
+  setting.branch_index = solved->branch.index();
+  std::size_t moves = 0;
+  double compact_seconds = 0.0;
+  for (auto _ : state) {
+    const auto start = std::chrono::steady_clock::now();
+    MoveFollower follower(setting, FollowLimits{});
+    const auto compacted = compactSolvedSeam(*solved, SeamMoveOptions{}, follower, workspace);
+    compact_seconds += std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+    const auto* result = std::get_if<std::vector<SeamMove>>(&compacted);
+    if (!result) {
+      state.SkipWithError(std::get<SeamMoveFailure>(compacted).failure.reason.c_str());
+      return;
+    }
+    moves = result->size();
+  }
+  state.counters["moves"] = static_cast<double>(moves);
+  state.counters["solve_ms"] = solve_seconds * 1e3;
+  state.counters["compact_in_solves"] =
+      compact_seconds / static_cast<double>(state.iterations()) / solve_seconds;
+}
+BENCHMARK(BM_CompactAndVerify500)->Unit(benchmark::kMillisecond)->MinTime(1.0);
 
 }  // namespace
 
