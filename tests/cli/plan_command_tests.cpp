@@ -504,6 +504,14 @@ TEST_CASE("The point on a circular seam moves at the programmed speed", "[cli][p
   REQUIRE(samples.size() > 30);
   // The approach, at least three process moves, the retract.
   REQUIRE(moves.size() >= 5);
+  // The curved seam is written with arcs, and the program runs as written
+  // when replayed with the controller's arc interpolation.
+  int arcs = 0;
+  for (const planner::MotionRecord* move : moves) arcs += move->kind == planner::MotionKind::kCircularMove;
+  CHECK(arcs > 0);
+  const test::ToolRun verify = test::runTool("verify '" + directory + "/circle.twm' --job '" + job_file + "'");
+  CAPTURE(verify.output);
+  CHECK(verify.exit_code == 0);
   // The first and last process moves ramp up from and down to a stop
   // (time-optimal timing); between them the arm runs through blends at the
   // programmed speed.
