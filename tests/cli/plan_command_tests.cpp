@@ -82,13 +82,17 @@ void verifyProgram(const planner::Program& program, const planner::Job& job) {
   const Eigen::Isometry3d X_WB = cell.frames.X_W(cell.arm_frame);
   const std::map<std::string, planner::ToolPath> paths = toolPaths(job);
   // Per tool and contact length: seams with their process's contact part,
-  // free moves with none.
-  std::map<std::pair<std::string, std::optional<double>>, ToolWorld> worlds;
+  // free moves with none (key -1; a std::optional in the key trips g++ 12's
+  // maybe-uninitialized warning at -O2).
+  const auto key = [](const std::string& tool, const std::optional<double>& length) {
+    return std::make_pair(tool, length.value_or(-1.0));
+  };
+  std::map<std::pair<std::string, double>, ToolWorld> worlds;
   for (const planner::Tool& tool : cell.tools) {
-    worlds.try_emplace({tool.name, std::nullopt}, cell, tool, std::nullopt);
+    worlds.try_emplace(key(tool.name, std::nullopt), cell, tool, std::nullopt);
     for (const auto& [name, path] : paths) {
       if (path.tool == tool.name) {
-        worlds.try_emplace({tool.name, path.contact_length}, cell, tool, path.contact_length);
+        worlds.try_emplace(key(tool.name, path.contact_length), cell, tool, path.contact_length);
       }
     }
   }
@@ -146,8 +150,7 @@ void verifyProgram(const planner::Program& program, const planner::Job& job) {
     }
     // The solver and the transit planner keep the margin at every target.
     ToolWorld& tool_world = worlds.at(
-        {motion->tool,
-         motion->seam.empty() ? std::nullopt : paths.at(motion->seam).contact_length});
+        key(motion->tool, motion->seam.empty() ? std::nullopt : paths.at(motion->seam).contact_length));
     CHECK(tool_world.world.checkState(motion->q, tool_world.workspace).valid());
     // Average joint speed over each move within the joint's limit (the
     // limit is on the peak; the average can only be lower).
